@@ -1,0 +1,29 @@
+#!/usr/bin/env bash
+# `npm start`: every set-up step on a fresh machine, then serve Tributary on http://localhost:3000.
+# Safe to run again: each step checks what is already there.
+set -euo pipefail
+source "$(dirname "${BASH_SOURCE[0]}")/lib.sh"
+cd "$ROOT_DIR"
+
+bash scripts/prepare-services.sh
+
+log "building the app"
+npx nuxt build >"$TRIBUTARY_STATE_DIR/build.log" 2>&1 || { tail -n 40 "$TRIBUTARY_STATE_DIR/build.log"; echo "Build failed (full log: $TRIBUTARY_STATE_DIR/build.log)" >&2; exit 1; }
+
+source "$TRIBUTARY_STATE_DIR/runtime.env"
+export PORT="${PORT:-3000}" HOST="${HOST:-0.0.0.0}"
+cat <<MSG
+
+  Tributary is running at http://localhost:${PORT}
+
+  Demo sign-ins (invented demo data; password for all: tributary-demo)
+    administrator  admin@demo.tributary.test
+    manager        manager@demo.tributary.test
+    biologist      biologist@demo.tributary.test
+    viewer         viewer@demo.tributary.test
+
+  E-mail goes to the local capturing SMTP server (Administration → Outbox).
+  Stop with Ctrl+C; \`npm run db:stop\` stops PostgreSQL.
+
+MSG
+exec node .output/server/index.mjs

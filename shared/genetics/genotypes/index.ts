@@ -1,0 +1,2 @@
+// Filled in by the topic's author; re-exported from shared/genetics/index.ts.
+export {}

@@ -1,0 +1,145 @@
+/**
+ * Runs the built Tributary server (.output) for one test file: a private copy of the
+ * seeded template database, a private capturing SMTP server, a free port.
+ *
+ *   const server = useServer()
+ *   it('…', async () => { const admin = await server.signIn('admin@demo.tributary.test') })
+ */
+import { spawn, type ChildProcess } from 'node:child_process'
+import { fileURLToPath } from 'node:url'
+import { afterAll, beforeAll } from 'vitest'
+import pg from 'pg'
+import { startMailCatcher } from '../../scripts/mail-catcher-lib'
+import { ApiClient } from './client'
+import { cloneTemplateDatabase, type TestDatabase } from './db'
+import { sessionPassword } from './env'
+import { freePort } from './ports'
+
+const root = fileURLToPath(new URL('../..', import.meta.url))
+export const demoPassword = 'tributary-demo'
+export const demo = {
+  admin: 'admin@demo.tributary.test',
+  manager: 'manager@demo.tributary.test',
+  biologist: 'biologist@demo.tributary.test',
+  viewer: 'viewer@demo.tributary.test',
+} as const
+
+export interface CapturedMail {
+  id: string, to: string[] | string, from: string, subject: string, text: string, html?: string, date: string
+  attachments: { filename: string, contentType: string, size: number }[]
+}
+
+export interface TestServer {
+  url: string
+  databaseUrl: string
+  /** A direct connection to this file's database (for arranging data and checking writes). */
+  db: pg.Pool
+  mail: { messages(): Promise<CapturedMail[]>, clear(): Promise<void> }
+  /** A client without a session. */
+  anonymous(headers?: Record<string, string>): ApiClient
+  /** A client signed in as `email` (demo password by default); throws when sign-in fails. */
+  signIn(email: string, password?: string): Promise<ApiClient>
+  /** Environment the server was started with (to restart it with the same settings). */
+  env: Record<string, string>
+  /** Stops and starts the app process again (same database and mail). */
+  restart(extraEnv?: Record<string, string>): Promise<void>
+}
+
+async function waitForHealthy(url: string, child: ChildProcess, output: () => string): Promise<void> {
+  const deadline = Date.now() + 60_000
+  while (Date.now() < deadline) {
+    if (child.exitCode !== null) throw new Error(`The server exited early:\n${output()}`)
+    try {
+      const response = await fetch(new URL('/api/health', url))
+      if (response.ok) return
+    }
+    catch { /* not listening yet */ }
+    await new Promise(resolve => setTimeout(resolve, 100))
+  }
+  throw new Error(`The server did not become healthy in time:\n${output()}`)
+}
+
+export function useServer(options: { env?: Record<string, string> } = {}): TestServer {
+  let database: TestDatabase | undefined
+  let child: ChildProcess | undefined
+  let catcher: Awaited<ReturnType<typeof startMailCatcher>> | undefined
+  let log = ''
+
+  const handle = {} as TestServer
+
+  async function launch(env: Record<string, string>) {
+    log = ''
+    child = spawn(process.execPath, ['.output/server/index.mjs'], {
+      cwd: root, env: { ...process.env, ...env }, stdio: ['ignore', 'pipe', 'pipe'],
+    })
+    child.stdout?.on('data', (d: Buffer) => { log += d.toString() })
+    child.stderr?.on('data', (d: Buffer) => { log += d.toString() })
+    await waitForHealthy(handle.url, child, () => log)
+  }
+
+  async function stop() {
+    if (!child || child.exitCode !== null) return
+    const exited = new Promise(resolve => child!.once('exit', resolve))
+    child.kill('SIGTERM')
+    const timer = setTimeout(() => child?.kill('SIGKILL'), 5000)
+    await exited
+    clearTimeout(timer)
+  }
+
+  beforeAll(async () => {
+    database = await cloneTemplateDatabase()
+    const [port, smtpPort, mailHttpPort] = [await freePort(), await freePort(), await freePort()]
+    catcher = await startMailCatcher({ smtpPort, httpPort: mailHttpPort })
+    handle.url = `http://127.0.0.1:${port}`
+    handle.databaseUrl = database.url
+    handle.db = new pg.Pool({ connectionString: database.url, max: 4 })
+    handle.env = {
+      PORT: String(port), HOST: '127.0.0.1', NODE_ENV: 'production',
+      NUXT_DATABASE_URL: database.url, NUXT_SESSION_PASSWORD: sessionPassword,
+      NUXT_APP_URL: handle.url, NUXT_SMTP_HOST: '127.0.0.1', NUXT_SMTP_PORT: String(smtpPort),
+      TRIBUTARY_TEST: '1',
+      ...options.env,
+    }
+    handle.mail = {
+      messages: async () => (await (await fetch(`http://127.0.0.1:${mailHttpPort}/messages`)).json()) as CapturedMail[],
+      clear: async () => { await fetch(`http://127.0.0.1:${mailHttpPort}/messages`, { method: 'DELETE' }) },
+    }
+    handle.anonymous = (headers = {}) => new ApiClient(handle.url, headers)
+    handle.signIn = async (email: string, password = demoPassword) => {
+      const client = new ApiClient(handle.url)
+      const response = await client.post('/api/auth/login', { email, password })
+      if (response.status !== 200) throw new Error(`Sign-in as ${email} failed: ${response.status} ${JSON.stringify(response.body)}`)
+      return client
+    }
+    handle.restart = async (extraEnv = {}) => {
+      await stop()
+      handle.env = { ...handle.env, ...extraEnv }
+      await launch(handle.env)
+    }
+    await launch(handle.env)
+  })
+
+  afterAll(async () => {
+    await stop()
+    await handle.db?.end()
+    await catcher?.close()
+    await database?.drop()
+  })
+
+  return handle
+}
+
+/** Polls `check` until it returns a value (bounded; no fixed sleeps in tests). */
+export async function eventually<T>(check: () => Promise<T | undefined | null | false>, timeoutMs = 15_000): Promise<T> {
+  const deadline = Date.now() + timeoutMs
+  let last: unknown
+  while (Date.now() < deadline) {
+    try {
+      const value = await check()
+      if (value) return value
+    }
+    catch (error) { last = error }
+    await new Promise(resolve => setTimeout(resolve, 100))
+  }
+  throw new Error(`Condition not met within ${timeoutMs} ms${last ? `: ${String(last)}` : ''}`)
+}
