@@ -4,7 +4,9 @@ import withNuxt from './.nuxt/eslint.config.mjs'
 // Node 20 lacks Object.groupBy (Node 21+), which the flat-config composer calls when the config is resolved.
 if (typeof Object.groupBy !== 'function') {
   Object.defineProperty(Object, 'groupBy', {
+    /** @param {Iterable<unknown>} items @param {(item: unknown, index: number) => PropertyKey} keyOf */
     value: (items, keyOf) => {
+      /** @type {Record<PropertyKey, unknown[]>} */
       const groups = Object.create(null)
       let index = 0
       for (const item of items) (groups[keyOf(item, index++)] ??= []).push(item)

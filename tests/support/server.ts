@@ -6,10 +6,14 @@
  *   it('…', async () => { const admin = await server.signIn('admin@demo.tributary.test') })
  */
 import { spawn, type ChildProcess } from 'node:child_process'
+import { mkdtemp, rm } from 'node:fs/promises'
+import { tmpdir } from 'node:os'
+import { join } from 'node:path'
 import { fileURLToPath } from 'node:url'
 import { afterAll, beforeAll } from 'vitest'
 import pg from 'pg'
 import { startMailCatcher } from '../../scripts/mail-catcher-lib'
+import { startObjectStore, type ObjectStoreServer } from '../../scripts/object-store-lib'
 import { ApiClient } from './client'
 import { cloneTemplateDatabase, type TestDatabase } from './db'
 import { sessionPassword } from './env'
@@ -43,6 +47,8 @@ export interface TestServer {
   env: Record<string, string>
   /** Stops and starts the app process again (same database and mail). */
   restart(extraEnv?: Record<string, string>): Promise<void>
+  /** This file's private object store (s3rver on a free port, files in a temp dir); stop() simulates an outage, start() brings it back with the same files. */
+  objectStore: { endpoint: string, bucket: string, directory: string, stop(): Promise<void>, start(): Promise<void> }
 }
 
 async function waitForHealthy(url: string, child: ChildProcess, output: () => string): Promise<void> {
@@ -63,6 +69,8 @@ export function useServer(options: { env?: Record<string, string> } = {}): TestS
   let database: TestDatabase | undefined
   let child: ChildProcess | undefined
   let catcher: Awaited<ReturnType<typeof startMailCatcher>> | undefined
+  let objectStore: ObjectStoreServer | undefined
+  let objectStoreDir: string | undefined
   let log = ''
 
   const handle = {} as TestServer
@@ -90,14 +98,27 @@ export function useServer(options: { env?: Record<string, string> } = {}): TestS
     database = await cloneTemplateDatabase()
     const [port, smtpPort, mailHttpPort] = [await freePort(), await freePort(), await freePort()]
     catcher = await startMailCatcher({ smtpPort, httpPort: mailHttpPort })
+    const objectStorePort = await freePort()
+    const storeDirectory = await mkdtemp(join(tmpdir(), 'tributary-object-store-'))
+    objectStoreDir = storeDirectory
+    objectStore = await startObjectStore({ port: objectStorePort, directory: storeDirectory })
+    handle.objectStore = {
+      endpoint: objectStore.endpoint, bucket: objectStore.bucket, directory: storeDirectory,
+      stop: async () => { await objectStore?.close() },
+      start: async () => { objectStore = await startObjectStore({ port: objectStorePort, directory: storeDirectory }) },
+    }
     handle.url = `http://127.0.0.1:${port}`
     handle.databaseUrl = database.url
     handle.db = new pg.Pool({ connectionString: database.url, max: 4 })
+    // Dropping the database at the end terminates connections; an idle one must not crash the run.
+    handle.db.on('error', () => {})
     handle.env = {
       PORT: String(port), HOST: '127.0.0.1', NODE_ENV: 'production',
       NUXT_DATABASE_URL: database.url, NUXT_SESSION_PASSWORD: sessionPassword,
       NUXT_APP_URL: handle.url, NUXT_SMTP_HOST: '127.0.0.1', NUXT_SMTP_PORT: String(smtpPort),
       TRIBUTARY_TEST: '1',
+      NUXT_S3_ENDPOINT: objectStore.endpoint, NUXT_S3_BUCKET: objectStore.bucket, NUXT_S3_REGION: 'us-east-1',
+      NUXT_S3_ACCESS_KEY_ID: 'S3RVER', NUXT_S3_SECRET_ACCESS_KEY: 'S3RVER', NUXT_S3_FORCE_PATH_STYLE: 'true',
       ...options.env,
     }
     handle.mail = {
@@ -123,6 +144,8 @@ export function useServer(options: { env?: Record<string, string> } = {}): TestS
     await stop()
     await handle.db?.end()
     await catcher?.close()
+    await objectStore?.close()
+    if (objectStoreDir) await rm(objectStoreDir, { recursive: true, force: true })
     await database?.drop()
   })
 

@@ -1,0 +1,128 @@
+/**
+ * Who is asking, and may they? Every protected route starts with one of:
+ *
+ *   const user = await requireUser(event)                           // any signed-in person
+ *   const user = await requireRole(event, 'manager', 'administrator') // some roles only
+ *
+ * The session is nuxt-auth-utils' sealed cookie `{ user: { id, agencyId, email, name, role,
+ * sessionVersion }, loggedInAt }`. The user row is read from the database on every request, so
+ * a deactivated user, or a user whose `session_version` moved on (password changed, signed out
+ * everywhere), is refused at once: the cookie is cleared and the answer is 401. Role and name
+ * come from the row, not the cookie (the cookie is refreshed when they differ).
+ *
+ * Scope every query with `agencyScope(user)`; a record of another agency must answer 404.
+ */
+import { randomBytes } from 'node:crypto'
+import type { H3Event } from 'h3'
+import type { User as UserModel } from '../db/models'
+import type { Role } from '#shared/types/db'
+
+/** The signed-in person as routes see it (fresh from the database). */
+export interface CurrentUser {
+  id: number
+  agencyId: number
+  email: string
+  name: string
+  role: Role
+  sessionVersion: number
+}
+
+/** Roles in order of what they may do, for messages ("manager or administrator"). */
+const ROLE_ORDER: readonly Role[] = ['viewer', 'biologist', 'manager', 'administrator']
+
+/** The session payload for a user row. */
+export function sessionUserOf(user: Pick<UserModel, 'id' | 'agencyId' | 'email' | 'name' | 'role' | 'sessionVersion'>): CurrentUser {
+  return {
+    id: user.id,
+    agencyId: user.agencyId,
+    email: user.email,
+    name: user.name,
+    role: user.role,
+    sessionVersion: user.sessionVersion,
+  }
+}
+
+/** "a", "a or b", "a, b or c" — roles listed from least to most powerful. */
+export function listRoles(roles: readonly Role[]): string {
+  const sorted = [...new Set(roles)].sort((a, b) => ROLE_ORDER.indexOf(a) - ROLE_ORDER.indexOf(b))
+  if (sorted.length <= 1) return sorted.join('')
+  return `${sorted.slice(0, -1).join(', ')} or ${sorted[sorted.length - 1]}`
+}
+
+/** The 403 message when `role` is not among `allowed`. */
+export function roleRefusal(role: Role, allowed: readonly Role[]): string {
+  return `Your role (${role}) cannot do this: it needs ${listRoles(allowed)}.`
+}
+
+function looksLikeSessionUser(value: unknown): value is CurrentUser {
+  if (!value || typeof value !== 'object') return false
+  const candidate = value as Record<string, unknown>
+  return Number.isInteger(candidate.id) && Number.isInteger(candidate.agencyId) && Number.isInteger(candidate.sessionVersion)
+}
+
+/** Starts (or replaces) the session of `user` on this response. */
+export async function startSession(event: H3Event, user: CurrentUser): Promise<void> {
+  await replaceUserSession(event, { user, loggedInAt: new Date().toISOString() })
+}
+
+/**
+ * The signed-in user, loaded from the database; throws 401 when there is none or the session
+ * ended. Memoised on the event, so several calls in one request read the row once.
+ */
+export async function requireUser(event: H3Event): Promise<CurrentUser> {
+  const memo = event.context.currentUser as CurrentUser | undefined
+  if (memo) return memo
+
+  const session = await getUserSession(event)
+  if (!session.user) throw unauthorized('Please sign in.')
+  if (!looksLikeSessionUser(session.user)) {
+    await clearUserSession(event)
+    throw unauthorized('Your session has ended. Please sign in again.')
+  }
+  const claimed = session.user
+  const { models } = await useDb()
+  const row = await models.User.findByPk(claimed.id)
+  if (!row || !row.active || row.passwordHash === null || row.agencyId !== claimed.agencyId || row.sessionVersion !== claimed.sessionVersion) {
+    await clearUserSession(event)
+    throw unauthorized('Your session has ended. Please sign in again.')
+  }
+
+  const fresh = sessionUserOf(row)
+  if (fresh.email !== claimed.email || fresh.name !== claimed.name || fresh.role !== claimed.role) {
+    await setUserSession(event, { user: fresh })
+  }
+  event.context.currentUser = fresh
+  return fresh
+}
+
+/** The signed-in user if their role is one of `roles`; 401 / 403 otherwise. */
+export async function requireRole(event: H3Event, ...roles: Role[]): Promise<CurrentUser> {
+  const user = await requireUser(event)
+  if (!roles.includes(user.role)) throw forbidden(roleRefusal(user.role, roles))
+  return user
+}
+
+/** `where` fragment that keeps a query inside the user's agency. */
+export function agencyScope(user: Pick<CurrentUser, 'agencyId'>): { agencyId: number } {
+  return { agencyId: user.agencyId }
+}
+
+let equaliserHash: Promise<string> | undefined
+
+/**
+ * A real scrypt hash of a random secret, verified against when the e-mail is unknown, so an
+ * unknown address takes as long to refuse as a wrong password.
+ */
+export function timingEqualiserHash(): Promise<string> {
+  equaliserHash ??= hashPassword(randomBytes(18).toString('base64url'))
+  return equaliserHash
+}
+
+/** verifyPassword that answers false (instead of throwing) for a malformed stored hash. */
+export async function passwordMatches(hash: string, password: string): Promise<boolean> {
+  try {
+    return await verifyPassword(hash, password)
+  } catch {
+    return false
+  }
+}
