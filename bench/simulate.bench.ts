@@ -1,0 +1,141 @@
+/**
+ * Speed of the stochastic simulations (issue 4):
+ * 1. one-locus allele-frequency model, N = Ne = 1000: replicate-generations
+ *    per second on one core, and the ratio to a vectorised numpy version of
+ *    the same model (bench/numpy_allele_frequency.py) when python3 + numpy
+ *    exist (bar: ≥ 2×);
+ * 2. individual-based model, N = 500, 2000 load + 200 marker loci, 100
+ *    generations: time per replicate on one core and the projected time of
+ *    200 replicates on one and two cores (target ≤ 60 s on 2 cores), with the
+ *    burn-in reported separately;
+ * 3. how that time grows with N, loci and replicates on smaller runs.
+ * CPU time (process.cpuUsage) is printed next to wall time because a shared
+ * machine can make wall time meaningless.
+ */
+import { spawnSync } from 'node:child_process'
+import { dirname, join } from 'node:path'
+import { fileURLToPath } from 'node:url'
+import { runEstablishmentReplicates } from '../shared/genetics/simulate/establishment'
+import type { EstablishmentParams } from '../shared/genetics/simulate/establishment'
+import { runRescueReplicates } from '../shared/genetics/simulate/rescue'
+import type { RescueParams } from '../shared/genetics/simulate/rescue'
+
+const here = dirname(fileURLToPath(import.meta.url))
+
+interface Timing { wall: number, cpu: number }
+
+function timed(action: () => void): Timing {
+  const cpuStart = process.cpuUsage()
+  const wallStart = performance.now()
+  action()
+  const cpu = process.cpuUsage(cpuStart)
+  return { wall: (performance.now() - wallStart) / 1000, cpu: (cpu.user + cpu.system) / 1e6 }
+}
+
+const format = (value: number, digits = 2): string => value.toFixed(digits)
+
+function alleleFrequencyBenchmark(): void {
+  const census = 1000
+  const replicates = 20_000
+  const params: EstablishmentParams = {
+    census, effectiveSize: census, s: 0.01, h: 0.5, sourceFrequency: 0.5, migrantsPerEvent: 10, eventInterval: 1, events: 1, generations: 10_000,
+  }
+  console.log(`Allele-frequency model: N = Ne = ${census}, s = ${params.s}, h = ${params.h}, one event of ${params.migrantsPerEvent} animals at q = ${params.sourceFrequency}, horizon ${params.generations}, ${replicates} replicates`)
+  runEstablishmentReplicates(params, { seed: 1, firstReplicate: 0, replicates: 2000 }) // warm-up (JIT)
+  let work = 0
+  let best: Timing = { wall: Infinity, cpu: Infinity }
+  for (let run = 0; run < 3; run++) {
+    let partial = runEstablishmentReplicates(params, { seed: 1, firstReplicate: 0, replicates: 1 })
+    const timing = timed(() => {
+      partial = runEstablishmentReplicates(params, { seed: 1, firstReplicate: 0, replicates })
+    })
+    work = partial.unresolved * params.generations
+    for (const time of partial.establishmentTimes) work += time
+    for (const time of partial.lossTimes) work += time
+    if (timing.cpu < best.cpu) best = timing
+  }
+  const cpuRate = work / best.cpu
+  console.log(`  TypeScript: ${work} replicate-generations, best of 3: wall ${format(best.wall)} s, CPU ${format(best.cpu)} s → ${format(work / best.wall / 1e6)} M/s wall, ${format(cpuRate / 1e6)} M/s CPU (one core)`)
+
+  const script = join(here, 'numpy_allele_frequency.py')
+  const args = [script, String(census), String(census), String(params.s), String(params.h), String(params.migrantsPerEvent), String(params.sourceFrequency), String(params.generations), String(replicates), '1']
+  const numpyRuns: { replicate_generations: number, seconds: number, cpu_seconds: number, rate: number, cpu_rate: number }[] = []
+  for (let run = 0; run < 3; run++) {
+    const result = spawnSync('python3', args, { encoding: 'utf8' })
+    if (result.status !== 0) {
+      console.log(`  numpy comparison skipped (python3 with numpy not available: ${(result.stderr || String(result.error ?? '')).trim().split('\n').pop() ?? ''})`)
+      return
+    }
+    numpyRuns.push(JSON.parse(result.stdout) as typeof numpyRuns[number])
+  }
+  const numpy = numpyRuns.reduce((a, b) => (b.cpu_seconds < a.cpu_seconds ? b : a))
+  console.log(`  numpy (vectorised, finished replicates dropped): ${numpy.replicate_generations} replicate-generations, best of 3: wall ${format(numpy.seconds)} s, CPU ${format(numpy.cpu_seconds)} s → ${format(numpy.rate / 1e6)} M/s wall, ${format(numpy.cpu_rate / 1e6)} M/s CPU`)
+  const ratio = cpuRate / numpy.cpu_rate
+  console.log(`  ratio TypeScript / numpy (CPU rates): ${format(ratio)}× (bar ≥ 2×: ${ratio >= 2 ? 'met' : 'NOT met'})`)
+}
+
+function rescueParams(census: number, loadLoci: number, markerLoci: number, generations: number, burnInGenerations: number): RescueParams {
+  return {
+    recipient: { census, effectiveRatio: 1, burnInGenerations },
+    source: { census, effectiveRatio: 1, burnInGenerations },
+    generations,
+    markerLoci,
+    load: { loci: loadLoci },
+    adaptive: { s: 0.1, h: 0.5, sourceFrequency: 0.5 },
+    translocation: { migrantsPerEvent: 5, eventInterval: 10, events: 10 },
+  }
+}
+
+function perReplicate(params: RescueParams, replicates: number): Timing {
+  const timing = timed(() => {
+    runRescueReplicates(params, { seed: 7, firstReplicate: 0, replicates })
+  })
+  return { wall: timing.wall / replicates, cpu: timing.cpu / replicates }
+}
+
+function rescueBenchmark(): void {
+  const census = 500
+  const replicates = 200
+  console.log(`\nIndividual-based model: N = ${census} (recipient and source), 2000 load + 200 marker loci, 100 generations, events of 5 animals every 10 generations, paired arms`)
+  runRescueReplicates(rescueParams(100, 500, 64, 10, 10), { seed: 1, firstReplicate: 0, replicates: 2 }) // warm-up (JIT)
+  const sample = 4
+  const phase = perReplicate(rescueParams(census, 2000, 200, 100, 0), sample)
+  console.log(`  translocation phase only (no burn-in), ${sample} replicates: ${format(phase.cpu)} s CPU (${format(phase.wall)} s wall) per replicate`)
+  console.log(`    200 replicates: one core ${format(phase.cpu * replicates, 0)} s CPU; projected on 2 cores ${format(phase.cpu * replicates / 2, 0)} s (target ≤ 60 s: ${phase.cpu * replicates / 2 <= 60 ? 'met' : 'NOT met'})`)
+  const burnInGenerations = 100
+  const withBurnIn = perReplicate(rescueParams(census, 2000, 200, 100, burnInGenerations), 2)
+  const burnInCost = Math.max(0, withBurnIn.cpu - phase.cpu) / (2 * burnInGenerations)
+  console.log(`  burn-in: ${format(burnInCost * 1000)} ms CPU per population-generation (both populations are burned in)`)
+  for (const generations of [100, 200, 2000]) {
+    const total = phase.cpu + burnInCost * 2 * generations
+    console.log(`    with a ${generations}-generation burn-in: ${format(total)} s CPU per replicate → 200 replicates ≈ ${format(total * replicates / 2, 0)} s on 2 cores`)
+  }
+}
+
+function scalingBenchmark(): void {
+  console.log('\nScaling of the individual-based model (phase only, CPU seconds per replicate unless noted):')
+  const base = { census: 200, load: 1000, markers: 200, generations: 50 }
+  const rows: string[] = []
+  for (const census of [100, 200, 400]) {
+    const timing = perReplicate(rescueParams(census, base.load, base.markers, base.generations, 0), 2)
+    rows.push(`  N = ${census} (loci ${base.load} + ${base.markers}, ${base.generations} generations): ${format(timing.cpu, 3)} s`)
+  }
+  for (const loci of [500, 2000, 8000]) {
+    const timing = perReplicate(rescueParams(base.census, loci, base.markers, base.generations, 0), 2)
+    rows.push(`  load loci = ${loci} (N ${base.census}): ${format(timing.cpu, 3)} s`)
+  }
+  for (const replicates of [2, 4, 8]) {
+    const timing = timed(() => {
+      runRescueReplicates(rescueParams(base.census, base.load, base.markers, base.generations, 0), { seed: 3, firstReplicate: 0, replicates })
+    })
+    rows.push(`  ${replicates} replicates (N ${base.census}, loci ${base.load}): ${format(timing.cpu, 3)} s CPU in total`)
+  }
+  for (const row of rows) console.log(row)
+  console.log('  (expected: about linear in loci and replicates; between linear and quadratic in N — the pedigree kinship matrix is N²)')
+}
+
+export default async function (): Promise<void> {
+  alleleFrequencyBenchmark()
+  rescueBenchmark()
+  scalingBenchmark()
+}

@@ -1,0 +1,82 @@
+import { binomialInversionFromTable, binomialInversionTable, binomialSetup, binomialWithSetup } from '../random/binomial'
+import type { RandomStream } from '../random/streams'
+import { frequencyAfterSelection } from './selection-step'
+
+/** Largest number of sampled genes n for which setups are kept (≤ 4 MB per n). */
+export const MAXIMUM_CACHED_GENES = 65_536
+
+/** Entries per allele count: state, p*, then the sampler setup (6 entries). */
+const STRIDE = 8
+const EMPTY = 0
+const DIRECT = 1
+const REFLECTED = 2
+/** Added to DIRECT/REFLECTED when the count is drawn from its pmf table. */
+const TABLED = 2
+
+/**
+ * One Wright–Fisher generation from "i copies of A among n genes":
+ * Binomial(n, p′(i/n)) with p′ the frequency after selection (SCIENCE.md
+ * eq. 2.1), with the selection step and the binomial sampler's constants
+ * (`binomialSetup`) kept per count i in one flat array.
+ *
+ * Why: replicates revisit the same counts over and over; keeping the
+ * constants saves a square root, divisions and an exp/log per draw, and the
+ * flat array (8 doubles per count) stays in cache; counts drawn by
+ * inversion also keep their pmf (no division per step). The draw is
+ * bit-for-bit the one `binomialDraw(random, n, p′)` would make, so using the
+ * cache or not never changes a result.
+ */
+export class DriftStepCache {
+  readonly genes: number
+  private readonly s: number
+  private readonly h: number
+  private readonly entries: Float64Array
+  /** pmf tables of the counts drawn by inversion (few: those with n·p′ < 10 or n·(1 − p′) < 10). */
+  private readonly inversionTables: (Float64Array | undefined)[]
+
+  /**
+   * @param genes - n, genes sampled per generation, integer in [1, MAXIMUM_CACHED_GENES]
+   * @param s - selection coefficient, 1 + s > 0
+   * @param h - dominance, 1 + hs > 0
+   */
+  constructor(genes: number, s: number, h: number) {
+    this.genes = genes
+    this.s = s
+    this.h = h
+    this.entries = new Float64Array((genes + 1) * STRIDE)
+    this.inversionTables = new Array<Float64Array | undefined>(genes + 1).fill(undefined)
+  }
+
+  /**
+   * Next generation's number of A copies.
+   *
+   * @param random - seeded generator
+   * @param copies - i, integer in [1, n − 1]
+   * @returns an integer in [0, n]
+   */
+  draw(random: RandomStream, copies: number): number {
+    const offset = copies * STRIDE
+    const entries = this.entries
+    if (entries[offset] === EMPTY) this.fill(copies, offset)
+    // Entries of a filled count are defined, hence the `as number` reads.
+    const state = entries[offset] as number
+    const drawn = state > TABLED
+      ? binomialInversionFromTable(random, this.inversionTables[copies] as Float64Array) // set with the state
+      : binomialWithSetup(random, this.genes, entries[offset + 1] as number, entries, offset + 2)
+    return state === REFLECTED || state === REFLECTED + TABLED ? this.genes - drawn : drawn
+  }
+
+  private fill(copies: number, offset: number): void {
+    const selected = frequencyAfterSelection(copies / this.genes, this.s, this.h)
+    const reflected = selected > 0.5
+    const probability = reflected ? 1 - selected : selected
+    this.entries[offset] = reflected ? REFLECTED : DIRECT
+    this.entries[offset + 1] = probability
+    binomialSetup(this.genes, probability, this.entries, offset + 2)
+    const table = binomialInversionTable(this.genes, this.entries, offset + 2)
+    if (table.length > 0) {
+      this.inversionTables[copies] = table
+      this.entries[offset] = (reflected ? REFLECTED : DIRECT) + TABLED
+    }
+  }
+}

@@ -1,0 +1,58 @@
+import type { GenomeArchitecture } from './architecture'
+import type { Population } from './population'
+
+/** Selection on the adaptive locus in a population (null where it is neutral). */
+export interface AdaptiveSelection {
+  s: number
+  h: number
+}
+
+/**
+ * Fitness of each individual under multiplicative effects across loci:
+ * W = Π_l (1 − s_l)^[hom_l] (1 − h_l·s_l)^[het_l] × (1 + s_A, 1 + h_A·s_A or 1
+ * for AA, Aa, aa at the adaptive locus).
+ *
+ * The log-fitness sums use byte lookup tables (`byteSums`): four lookups
+ * for the homozygous and four for the heterozygous loci of each 32-locus
+ * word that carries a harmful allele. Cost O(N × loadWords). Lethal
+ * homozygotes get fitness 0 (ln 0 = −∞).
+ *
+ * @param population - individuals to evaluate
+ * @param architecture - byte tables of ln(1 − s) and ln(1 − h·s)
+ * @param adaptive - selection on the adaptive locus, or null
+ * @returns a new array of fitness values ≥ 0, one per individual
+ */
+export function evaluateFitness(population: Population, architecture: GenomeArchitecture, adaptive: AdaptiveSelection | null): Float64Array {
+  const { size, load } = population
+  const words = architecture.loadWords
+  const fitness = new Float64Array(size)
+  const heterozygote = adaptive ? 1 + adaptive.h * adaptive.s : 1
+  const homozygote = adaptive ? 1 + adaptive.s : 1
+  const { byteLogHomozygous: homTable, byteLogHeterozygous: hetTable } = architecture
+  // Hot loop: indices stay inside the bitsets and the 256-entry byte tables,
+  // hence the `as number` reads.
+  for (let individual = 0; individual < size; individual++) {
+    const first = 2 * individual * words
+    const second = first + words
+    let logFitness = 0
+    for (let word = 0; word < words; word++) {
+      const a = load[first + word] as number
+      const b = load[second + word] as number
+      if ((a | b) === 0) continue
+      const homozygous = a & b
+      const heterozygous = a ^ b
+      const table = word << 10
+      if (homozygous !== 0) {
+        logFitness += (homTable[table + (homozygous & 255)] as number) + (homTable[table + 256 + ((homozygous >>> 8) & 255)] as number)
+          + (homTable[table + 512 + ((homozygous >>> 16) & 255)] as number) + (homTable[table + 768 + (homozygous >>> 24)] as number)
+      }
+      if (heterozygous !== 0) {
+        logFitness += (hetTable[table + (heterozygous & 255)] as number) + (hetTable[table + 256 + ((heterozygous >>> 8) & 255)] as number)
+          + (hetTable[table + 512 + ((heterozygous >>> 16) & 255)] as number) + (hetTable[table + 768 + (heterozygous >>> 24)] as number)
+      }
+    }
+    const copies = (population.adaptive[2 * individual] as number) + (population.adaptive[2 * individual + 1] as number)
+    fitness[individual] = Math.exp(logFitness) * (copies === 2 ? homozygote : copies === 1 ? heterozygote : 1)
+  }
+  return fitness
+}

@@ -1,0 +1,135 @@
+import type { RandomStream } from '../random/streams'
+import { uniform01, uniformIndex } from '../random/uniform'
+import { WeightedSampler } from '../random/weighted-sampler'
+import type { GenomeArchitecture } from './architecture'
+import { matingWeights, reproductiveWeightShape } from './family-weights'
+import { writeGamete } from './gamete'
+import type { GameteScratch } from './gamete'
+import { offspringKinship } from './kinship'
+import { allocatePopulation } from './population'
+import type { Population } from './population'
+
+/** Immigrant parents from a source population (continuing migration). */
+export interface ImmigrantSupply {
+  source: Population
+  /** m: probability that a given parent of a given offspring is an immigrant. */
+  rate: number
+}
+
+/** Buffers reused from generation to generation. */
+export interface ReproductionScratch {
+  gamete: GameteScratch
+  /** Two kinship buffers used in turn (the parents hold one, the offspring get the other). */
+  kinship: [Float32Array, Float32Array]
+}
+
+/**
+ * Fresh reusable buffers for one lineage of generations.
+ *
+ * @param gamete - gamete buffers
+ * @returns scratch with empty kinship buffers
+ */
+export function reproductionScratch(gamete: GameteScratch): ReproductionScratch {
+  return { gamete, kinship: [new Float32Array(0), new Float32Array(0)] }
+}
+
+/**
+ * Produces the next generation (discrete, non-overlapping generations).
+ *
+ * Each offspring has a mother drawn from the females and a father from the
+ * males, each with probability proportional to fitness × a Gamma(α)
+ * reproductive weight (α from `reproductiveWeightShape` for the target
+ * Ne = effectiveRatio × parents); under continuing migration each parent is
+ * instead, with probability m, a random adult of that sex from the source.
+ * Selection is thus on fecundity/viability of parents (the usual
+ * Wright–Fisher individual-based scheme). The first ⌈N/2⌉ offspring are
+ * female. Gametes by `writeGamete`; pedigree kinship by `offspringKinship`
+ * when the parents carry a kinship matrix.
+ *
+ * @param parents - breeding adults (residents plus any translocated animals)
+ * @param parentFitness - fitness of each parent (from `evaluateFitness`)
+ * @param offspringCount - next generation's census, integer ≥ 2
+ * @param effectiveRatio - target Ne/N in (0, 1]
+ * @param architecture - genome layout
+ * @param immigrants - continuing migration, or null
+ * @param random - seeded generator
+ * @param scratch - reusable buffers
+ * @returns the offspring, or null if a sex has no parent with positive fitness (extinction)
+ */
+export function reproduce(
+  parents: Population,
+  parentFitness: Float64Array,
+  offspringCount: number,
+  effectiveRatio: number,
+  architecture: GenomeArchitecture,
+  immigrants: ImmigrantSupply | null,
+  random: RandomStream,
+  scratch: ReproductionScratch,
+): Population | null {
+  const females: number[] = []
+  const males: number[] = []
+  for (let i = 0; i < parents.size; i++) (parents.male[i] === 1 ? males : females).push(i)
+  if (females.length === 0 || males.length === 0) return null
+  const targetEffectiveSize = effectiveRatio * parents.size
+  const femaleSampler = samplerFor(females, parentFitness, reproductiveWeightShape(females.length, targetEffectiveSize), random)
+  const maleSampler = samplerFor(males, parentFitness, reproductiveWeightShape(males.length, targetEffectiveSize), random)
+  if (!femaleSampler || !maleSampler) return null
+
+  const immigrantFemales: number[] = []
+  const immigrantMales: number[] = []
+  if (immigrants && immigrants.rate > 0) {
+    for (let i = 0; i < immigrants.source.size; i++) (immigrants.source.male[i] === 1 ? immigrantMales : immigrantFemales).push(i)
+  }
+  const trackKinship = parents.kinship !== null
+  const offspring = allocatePopulation(offspringCount, architecture, false)
+  const mothers = new Int32Array(offspringCount)
+  const fathers = new Int32Array(offspringCount)
+  // Immigrants get parent numbers P, P+1, … in order of first use (kinship only).
+  const immigrantNumber = new Map<number, number>()
+  const numberImmigrant = (sourceIndex: number): number => {
+    const known = immigrantNumber.get(sourceIndex)
+    if (known !== undefined) return known
+    const assigned = parents.size + immigrantNumber.size
+    immigrantNumber.set(sourceIndex, assigned)
+    return assigned
+  }
+
+  for (let child = 0; child < offspringCount; child++) {
+    for (let slot = 0; slot < 2; slot++) {
+      const pool = slot === 0 ? immigrantFemales : immigrantMales
+      if (pool.length > 0 && immigrants && uniform01(random) < immigrants.rate) {
+        const sourceIndex = pool[uniformIndex(random, pool.length)] as number // index < pool.length
+        writeGamete(immigrants.source, sourceIndex, offspring, child, slot, architecture, random, scratch.gamete)
+        if (trackKinship) (slot === 0 ? mothers : fathers)[child] = numberImmigrant(sourceIndex)
+      } else {
+        const parent = slot === 0 ? femaleSampler.draw(random) : maleSampler.draw(random)
+        writeGamete(parents, parent, offspring, child, slot, architecture, random, scratch.gamete)
+        if (trackKinship) (slot === 0 ? mothers : fathers)[child] = parent
+      }
+    }
+  }
+  if (parents.kinship) {
+    const [first, second] = scratch.kinship
+    const free = first.buffer === parents.kinship.buffer ? second : first
+    const needed = offspringCount * offspringCount
+    const buffer = free.length >= needed ? free : new Float32Array(Math.ceil(needed * 1.25))
+    offspring.kinship = offspringKinship(parents.kinship, parents.size, mothers, fathers, buffer)
+    scratch.kinship = free === first ? [buffer, second] : [first, buffer]
+  }
+  return offspring
+}
+
+/** Draws parent indices of one sex in proportion to their mating weights. */
+interface ParentSampler {
+  draw: (random: RandomStream) => number
+}
+
+function samplerFor(indices: number[], fitness: Float64Array, shape: number, random: RandomStream): ParentSampler | null {
+  const ownFitness = Float64Array.from(indices, index => fitness[index] ?? 0)
+  const weights = matingWeights(ownFitness, shape, random)
+  let total = 0
+  for (const weight of weights) total += weight
+  if (!(total > 0)) return null
+  const sampler = new WeightedSampler(weights)
+  return { draw: generator => indices[sampler.sample(generator)] as number } // sample < indices.length
+}

@@ -1,0 +1,234 @@
+import { describe, expect, it } from 'vitest'
+import fc from 'fast-check'
+import { offspringKinship } from '../../../shared/genetics/simulate/rescue/kinship'
+import { countAlleles } from '../../../shared/genetics/simulate/rescue/bit-counts'
+import { dominanceFromSelection, dominanceRate } from '../../../shared/genetics/simulate/rescue/dominance'
+import { reproductiveWeightShape } from '../../../shared/genetics/simulate/rescue/family-weights'
+import { linkageLayout, setBitRange } from '../../../shared/genetics/simulate/rescue/linkage'
+import { byteSums, equilibriumFrequency, genomeArchitecture } from '../../../shared/genetics/simulate/rescue/architecture'
+import { rescuePlan } from '../../../shared/genetics/simulate/rescue/rescue-plan'
+import { allocatePopulation, founderKinship } from '../../../shared/genetics/simulate/rescue/population'
+import { gameteScratch, writeGamete } from '../../../shared/genetics/simulate/rescue/gamete'
+import { replicateStream, sampleGamma, sharedStream } from '../../../shared/genetics/simulate/random'
+import type { RescueParams } from '../../../shared/genetics/simulate/rescue'
+
+const Z = 4
+
+describe('offspringKinship (pedigree coancestry, by definition)', () => {
+  // Founders 0, 1 (female) and 2, 3 (male), unrelated and non-inbred.
+  const founders = founderKinship(4)
+
+  it('gives ¼ for full sibs, ⅛ for half sibs, 0 for unrelated and ½ for self', () => {
+    // Children (mother × father): 0 and 1 are full sibs (0 × 2); 2 is their half sib through
+    // mother 0 (0 × 3); 3 is a half sib of 0 and 1 through father 2 (1 × 2) and unrelated to 2.
+    const kinship = offspringKinship(founders, 4, Int32Array.of(0, 0, 0, 1), Int32Array.of(2, 2, 3, 2))
+    const at = (x: number, y: number): number => kinship[x * 4 + y] ?? Number.NaN
+    expect(at(0, 1)).toBe(0.25)
+    expect(at(0, 2)).toBe(0.125)
+    expect(at(0, 3)).toBe(0.125) // half sibs through father 2
+    expect(at(2, 3)).toBe(0)
+    expect(at(1, 0)).toBe(at(0, 1))
+    for (let x = 0; x < 4; x++) expect(at(x, x)).toBe(0.5)
+  })
+
+  it('gives F = ¼ to the offspring of full sibs', () => {
+    const siblings = offspringKinship(founders, 4, Int32Array.of(0, 0), Int32Array.of(2, 2))
+    const inbred = offspringKinship(siblings, 2, Int32Array.of(0), Int32Array.of(1))
+    expect(2 * (inbred[0] ?? 0) - 1).toBe(0.25)
+  })
+
+  it('treats immigrants (numbers ≥ P) as unrelated founders', () => {
+    // Children 0 and 1 share immigrant mother 4; child 2 has immigrant mother 5.
+    const kinship = offspringKinship(founders, 4, Int32Array.of(4, 4, 5), Int32Array.of(2, 3, 2))
+    expect(kinship[0 * 3 + 1]).toBe(0.125)
+    expect(kinship[0 * 3 + 2]).toBe(0.125)
+    expect(kinship[1 * 3 + 2]).toBe(0)
+    expect(kinship[0]).toBe(0.5)
+  })
+})
+
+describe('countAlleles', () => {
+  it('equals a bit-by-bit count', () => {
+    fc.assert(fc.property(
+      fc.integer({ min: 1, max: 4 }), fc.integer({ min: 0, max: 70 }), fc.integer({ min: 0, max: 2 ** 31 - 1 }),
+      (words, haplotypes, seed) => {
+        const random = replicateStream(seed, 0)
+        const bits = Int32Array.from({ length: words * haplotypes }, () => random.next())
+        const loci = 32 * words - (seed % 5)
+        const counts = countAlleles(bits, words, haplotypes, loci)
+        for (let locus = 0; locus < loci; locus++) {
+          let expected = 0
+          for (let h = 0; h < haplotypes; h++) expected += ((bits[h * words + (locus >> 5)] ?? 0) >>> (locus & 31)) & 1
+          if (counts[locus] !== expected) return false
+        }
+        return counts.length === loci
+      },
+    ), { numRuns: 60 })
+  })
+})
+
+describe('dominance–selection relation h = exp(−k·s)/2', () => {
+  it('has the closed form k = ((2h̄)^(−1/β) − 1)/θ', () => {
+    expect(dominanceRate(0.25, 0.1, 1)).toBeCloseTo(10, 12)
+    expect(dominanceRate(0.5, 0.05, 0.3)).toBe(0)
+    expect(dominanceFromSelection(0, 50)).toBe(0.5)
+  })
+
+  it('gives the requested mean dominance over gamma-distributed s (Monte Carlo)', () => {
+    const random = replicateStream(1, 0)
+    const rate = dominanceRate(0.2, 0.05, 0.3)
+    const draws = 100_000
+    let sum = 0
+    let sumSquares = 0
+    for (let i = 0; i < draws; i++) {
+      const h = dominanceFromSelection(sampleGamma(random, 0.3, 0.05 / 0.3), rate)
+      sum += h
+      sumSquares += h * h
+    }
+    const mean = sum / draws
+    const standardError = Math.sqrt((sumSquares / draws - mean * mean) / draws)
+    expect(Math.abs(mean - 0.2)).toBeLessThanOrEqual(Z * standardError)
+  })
+
+  it('rejects h̄ outside (0, ½]', () => {
+    expect(() => dominanceRate(0, 0.05, 0.3)).toThrow('dominanceRate: meanDominance must be in (0, 0.5], got 0')
+    expect(() => dominanceRate(0.6, 0.05, 0.3)).toThrow(RangeError)
+  })
+})
+
+describe('reproductiveWeightShape', () => {
+  it('makes two offspring share a parent with probability 2/Ne (Monte Carlo over weights)', () => {
+    const random = replicateStream(2, 0)
+    const parents = 50
+    for (const target of [40, 20, 8]) {
+      const shape = reproductiveWeightShape(parents, target)
+      const draws = 4000
+      let sum = 0
+      let sumSquares = 0
+      for (let i = 0; i < draws; i++) {
+        const weights = Array.from({ length: parents }, () => sampleGamma(random, shape))
+        const total = weights.reduce((a, b) => a + b, 0)
+        const same = weights.reduce((a, w) => a + (w / total) ** 2, 0)
+        sum += same
+        sumSquares += same * same
+      }
+      const mean = sum / draws
+      const standardError = Math.sqrt((sumSquares / draws - mean * mean) / draws)
+      expect(Math.abs(mean - 2 / target)).toBeLessThanOrEqual(Z * standardError)
+    }
+  })
+
+  it('needs no extra variance when Ne ≥ 2n', () => {
+    expect(reproductiveWeightShape(50, 100)).toBe(Infinity)
+    expect(reproductiveWeightShape(50, 1)).toBe(1e-3)
+  })
+})
+
+describe('genome helpers', () => {
+  it('equilibriumFrequency solves u = q·s·(h + (1 − 2h)·q)', () => {
+    expect(equilibriumFrequency(1e-4, 0.1, 0.5)).toBeCloseTo(0.002, 15)
+    expect(equilibriumFrequency(1e-4, 1, 0)).toBeCloseTo(0.01, 15)
+    const q = equilibriumFrequency(2.5e-4, 0.2, 0.1)
+    expect(q * 0.2 * (0.1 + 0.8 * q)).toBeCloseTo(2.5e-4, 15)
+    expect(equilibriumFrequency(1e-3, 1e-6, 0.5)).toBe(0.5)
+    expect(equilibriumFrequency(0, 0.1, 0.2)).toBe(0)
+  })
+
+  it('byteSums adds the values of the set bits of every byte', () => {
+    const values = Float64Array.from({ length: 40 }, (_, i) => i + 0.5)
+    const table = byteSums(values)
+    expect(table.length).toBe(8 * 256)
+    expect(table[0]).toBe(0)
+    expect(table[0b101]).toBe(0.5 + 2.5)
+    expect(table[4 * 256 + 0b11]).toBe(32.5 + 33.5)
+    expect(table[4 * 256 + 255]).toBe(288) // loci 32…39: 32.5 + 33.5 + … + 39.5
+    expect(table[5 * 256 + 255]).toBe(0) // loci 40…47 do not exist
+  })
+
+  it('setBitRange sets exactly the requested bits', () => {
+    fc.assert(fc.property(fc.integer({ min: 0, max: 100 }), fc.integer({ min: 0, max: 100 }), (a, b) => {
+      const [from, to] = a <= b ? [a, b] : [b, a]
+      const bits = new Int32Array(4)
+      setBitRange(bits, from, to)
+      for (let i = 0; i < 128; i++) {
+        const set = (((bits[i >> 5] ?? 0) >>> (i & 31)) & 1) === 1
+        if (set !== (i >= from && i < to)) return false
+      }
+      return true
+    }))
+  })
+
+  it('linkageLayout spreads loci evenly over chromosomes', () => {
+    const layout = linkageLayout(6, 2, 1)
+    expect(Array.from(layout.chromosomeStart)).toEqual([0, 3, 6])
+    expect(Array.from(layout.position)).toEqual([1 / 6, 0.5, 5 / 6, 1 / 6, 0.5, 5 / 6])
+  })
+})
+
+describe('writeGamete', () => {
+  /** Fraction of gametes in which adjacent markers i, i+1 come from different parental haplotypes. */
+  function recombinationFractions(params: RescueParams, gametes: number): number[] {
+    const plan = rescuePlan('test', params)
+    const architecture = genomeArchitecture(plan, sharedStream(1))
+    const parent = allocatePopulation(1, architecture, false)
+    // Haplotype 0 carries no derived allele, haplotype 1 carries all of them.
+    parent.markers.fill(-1, architecture.markerWords, 2 * architecture.markerWords)
+    const children = allocatePopulation(gametes, architecture, false)
+    const random = replicateStream(9, 0)
+    const scratch = gameteScratch(architecture)
+    for (let g = 0; g < gametes; g++) writeGamete(parent, 0, children, g, 0, architecture, random, scratch)
+    const fractions: number[] = []
+    for (let locus = 0; locus + 1 < architecture.markerLoci; locus++) {
+      let recombinant = 0
+      for (let g = 0; g < gametes; g++) {
+        const offset = 2 * g * architecture.markerWords
+        const here = ((children.markers[offset + (locus >> 5)] ?? 0) >>> (locus & 31)) & 1
+        const next = ((children.markers[offset + ((locus + 1) >> 5)] ?? 0) >>> ((locus + 1) & 31)) & 1
+        if (here !== next) recombinant++
+      }
+      fractions.push(recombinant / gametes)
+    }
+    return fractions
+  }
+  const base: RescueParams = {
+    recipient: { census: 2 }, source: { census: 2 }, generations: 1, markerLoci: 8, load: null,
+    translocation: { migrantsPerEvent: 0, eventInterval: 1, events: 0 },
+  }
+  const gametes = 20_000
+  const tolerance = (r: number): number => Z * Math.sqrt(r * (1 - r) / gametes)
+
+  it('recombines unlinked loci with probability ½', () => {
+    for (const fraction of recombinationFractions(base, gametes)) expect(Math.abs(fraction - 0.5)).toBeLessThanOrEqual(tolerance(0.5))
+  })
+
+  it('follows Haldane\'s map function r = ½(1 − e^(−2d)) on a map, and ½ between chromosomes', () => {
+    // 8 markers on 2 chromosomes of 1 Morgan: 4 per chromosome, 0.25 M apart.
+    const fractions = recombinationFractions({ ...base, map: { chromosomes: 2, chromosomeLength: 1 } }, gametes)
+    const haldane = 0.5 * (1 - Math.exp(-2 * 0.25))
+    fractions.forEach((fraction, locus) => {
+      const expected = locus === 3 ? 0.5 : haldane
+      expect(Math.abs(fraction - expected)).toBeLessThanOrEqual(tolerance(expected))
+    })
+  })
+
+  it('adds Poisson(U) new harmful mutations per gamete', () => {
+    const plan = rescuePlan('test', { ...base, load: { loci: 5000, mutationRate: 0.8 } })
+    const architecture = genomeArchitecture(plan, sharedStream(1))
+    const parent = allocatePopulation(1, architecture, false)
+    const children = allocatePopulation(10_000, architecture, false)
+    const random = replicateStream(10, 0)
+    const scratch = gameteScratch(architecture)
+    for (let g = 0; g < children.size; g++) writeGamete(parent, 0, children, g, 0, architecture, random, scratch)
+    let mutations = 0
+    for (const word of children.load) {
+      let value = word
+      while (value !== 0) {
+        value &= value - 1
+        mutations++
+      }
+    }
+    // A second hit on the same locus of a gamete is lost: expected loss U²/(2·loci) ≈ 6·10⁻⁵.
+    const mean = mutations / children.size
+    expect(Math.abs(mean - 0.8)).toBeLessThanOrEqual(Z * Math.sqrt(0.8 / children.size))
+  })
+})
