@@ -32,18 +32,18 @@ export default defineNuxtConfig({
   },
   srcDir: '.',
   compatibilityDate: '2025-07-15',
-  hooks: {
-    // Our JSON error handler for /api/** runs first; Nuxt's own handler (the error page) stays after it.
-    'nitro:config'(nitroConfig) {
-      nitroConfig.errorHandler = ['~~/server/error', ...[nitroConfig.errorHandler ?? []].flat()]
-    },
-  },
   nitro: {
     experimental: { tasks: false },
   },
   vite: { build: { chunkSizeWarningLimit: 1500 } },
   typescript: { strict: true },
   telemetry: false,
+  hooks: {
+    // Our JSON error handler for /api/** runs first; Nuxt's own handler (the error page) stays after it.
+    'nitro:config'(nitroConfig) {
+      nitroConfig.errorHandler = ['~~/server/error', ...[nitroConfig.errorHandler ?? []].flat()]
+    },
+  },
   eslint: { config: { stylistic: { quotes: 'single', semi: false, commaDangle: 'always-multiline', braceStyle: '1tbs' } } },
   tailwindcss: { cssPath: '~/assets/css/tailwind.css', viewer: false },
 })

@@ -10,6 +10,22 @@ ensure_debian_packages "postgresql-client:psql"
 ensure_node_modules
 bash scripts/pg.sh start
 
+# The local S3-compatible object store (genotype files, attachments), unless another endpoint is
+# configured. Started before the seed, which puts the demo genotype files there.
+if [ -z "${NUXT_S3_ENDPOINT:-}" ]; then
+  export TRIBUTARY_S3_PORT="${TRIBUTARY_S3_PORT:-4569}" TRIBUTARY_S3_DIR="${TRIBUTARY_S3_DIR:-$TRIBUTARY_STATE_DIR/object-store}"
+  if ! (exec 3<>"/dev/tcp/127.0.0.1/${TRIBUTARY_S3_PORT}") 2>/dev/null; then
+    log "starting the local object store on 127.0.0.1:${TRIBUTARY_S3_PORT}"
+    nohup npx tsx scripts/object-store.ts >"$TRIBUTARY_STATE_DIR/object-store.log" 2>&1 &
+    for _ in $(seq 1 100); do
+      (exec 3<>"/dev/tcp/127.0.0.1/${TRIBUTARY_S3_PORT}") 2>/dev/null && break
+      sleep 0.2
+    done
+  fi
+  NUXT_S3_ENDPOINT="http://127.0.0.1:${TRIBUTARY_S3_PORT}"
+fi
+export NUXT_S3_ENDPOINT
+
 log "running migrations and the demo seed"
 npx tsx scripts/db-migrate.ts
 npx tsx scripts/db-seed.ts
@@ -36,3 +52,7 @@ export NUXT_SESSION_PASSWORD='${NUXT_SESSION_PASSWORD}'
 export NUXT_SMTP_HOST='${NUXT_SMTP_HOST}'
 export NUXT_SMTP_PORT='${NUXT_SMTP_PORT:-2525}'
 ENV
+# Object storage settings given in the environment are kept for the app (README: Settings).
+for name in NUXT_S3_ENDPOINT NUXT_S3_REGION NUXT_S3_BUCKET NUXT_S3_ACCESS_KEY_ID NUXT_S3_SECRET_ACCESS_KEY NUXT_S3_FORCE_PATH_STYLE NUXT_S3_PUBLIC_ENDPOINT NUXT_S3_DOWNLOAD_LINK_SECONDS; do
+  if [ -n "${!name:-}" ]; then printf "export %s='%s'\n" "$name" "${!name}" >>"$TRIBUTARY_STATE_DIR/runtime.env"; fi
+done

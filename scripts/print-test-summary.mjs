@@ -17,8 +17,7 @@ if (file && existsSync(file)) {
     const ran = (fileResult.assertionResults ?? []).some(a => a.status === 'failed')
     if (fileResult.status === 'failed' && !ran) failed += 1
   }
-}
-else {
+} else {
   console.error('No vitest report found: the test run did not complete.')
   failed += 1
 }

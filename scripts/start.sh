@@ -26,4 +26,11 @@ cat <<MSG
   Stop with Ctrl+C; \`npm run db:stop\` stops PostgreSQL.
 
 MSG
-exec node .output/server/index.mjs
+# The simulation worker (pg-boss queue on the same database) runs beside the server and stops with it.
+log "starting the simulation worker (log: $TRIBUTARY_STATE_DIR/worker.log)"
+# Its own process group (setsid), so one signal reaches npm, tsx and the worker itself.
+setsid npm run --silent worker >>"$TRIBUTARY_STATE_DIR/worker.log" 2>&1 &
+WORKER_PID=$!
+trap 'kill -TERM -- "-$WORKER_PID" 2>/dev/null || true; wait "$WORKER_PID" 2>/dev/null || true' EXIT
+trap 'exit 130' INT TERM
+node .output/server/index.mjs

@@ -4,8 +4,7 @@ export default defineEventHandler(async (event) => {
     const { sequelize } = await useDb()
     await sequelize.query('SELECT 1')
     return { ok: true, database: 'reachable' }
-  }
-  catch {
+  } catch {
     setResponseStatus(event, 503)
     return { ok: false, database: 'unreachable', message: 'The database is not reachable right now; try again in a moment.' }
   }

@@ -1,7 +1,7 @@
 /**
  * Outgoing e-mail through an outbox table: the app never sends inline.
  *
- * - `queueMail(t, { agencyId, to, subject, text, html? })` inserts an `outbox_messages` row in
+ * - `queueMail(t, { agencyId, to, subject, text, html?, attachments? })` inserts an `outbox_messages` row in
  *   the caller's transaction (rolled back with it) and, after commit, kicks the dispatcher.
  * - `sendQueuedMail()` (run by server/plugins/mail-dispatcher.ts every 2 s and on each kick)
  *   claims due rows with `FOR UPDATE SKIP LOCKED` — several app processes never take the same
@@ -28,6 +28,8 @@ export interface MailToQueue {
   subject: string
   text: string
   html?: string | null
+  /** Files to send with the message (kept in the outbox row until sent; keep them small). */
+  attachments?: { filename: string, contentType: string, content: Buffer }[]
 }
 
 export interface SmtpSettings {
@@ -73,6 +75,7 @@ export async function queueMail(transaction: Transaction, mail: MailToQueue): Pr
     subject: mail.subject,
     textBody: mail.text,
     htmlBody: mail.html ?? null,
+    attachments: (mail.attachments ?? []).map(file => ({ filename: file.filename, contentType: file.contentType, contentBase64: file.content.toString('base64') })),
     lastError: null,
     sentAt: null,
   }, { transaction })
@@ -118,7 +121,15 @@ export function closeMailTransport(): void {
   cachedTransport = null
 }
 
-interface ClaimedRow { id: number, to_address: string, subject: string, text_body: string, html_body: string | null, attempts: number }
+interface ClaimedRow {
+  id: number
+  to_address: string
+  subject: string
+  text_body: string
+  html_body: string | null
+  attempts: number
+  attachments: { filename: string, contentType: string, contentBase64: string }[] | null
+}
 
 export interface SendPassResult { sent: number, retrying: number, failed: number }
 
@@ -146,7 +157,7 @@ export async function sendQueuedMail(options: { batchSize?: number, maxBatches?:
                 LIMIT :batchSize
                 FOR UPDATE SKIP LOCKED) AS due
         WHERE o.id = due.id
-      RETURNING o.id, o.to_address, o.subject, o.text_body, o.html_body, o.attempts`,
+      RETURNING o.id, o.to_address, o.subject, o.text_body, o.html_body, o.attempts, o.attachments`,
       { replacements: { batchSize: options.batchSize ?? 20 }, type: QueryTypes.SELECT },
     )
     if (claimed.length === 0) break
@@ -159,6 +170,7 @@ export async function sendQueuedMail(options: { batchSize?: number, maxBatches?:
           subject: row.subject,
           text: row.text_body,
           html: row.html_body ?? undefined,
+          attachments: (row.attachments ?? []).map(file => ({ filename: file.filename, contentType: file.contentType, content: Buffer.from(file.contentBase64, 'base64') })),
         })
         await sequelize.query(
           `UPDATE outbox_messages SET status = 'sent', sent_at = now(), attempts = attempts + 1,

@@ -11,9 +11,10 @@ import { upSteps } from '../../server/db/runner'
 import { createTestDatabase, type TestDatabase } from '../support/db'
 
 const APP_TABLES = [
-  'agencies', 'attachments', 'audit_events', 'census_counts', 'comments', 'decisions', 'effective_size_estimates',
-  'genetic_datasets', 'outbox_messages', 'proposals', 'scenarios', 'sign_in_attempts', 'species', 'subpopulations',
-  'user_tokens', 'users',
+  'agencies', 'agency_logos', 'agency_signing_certificates', 'attachments', 'audit_events', 'census_counts', 'comments',
+  'decisions', 'effective_size_estimates', 'genetic_datasets', 'issued_briefs', 'monitoring_observations',
+  'outbox_messages', 'proposal_versions', 'proposals', 'scenarios', 'sign_in_attempts', 'simulation_runs', 'species',
+  'subpopulations', 'translocations', 'user_tokens', 'users',
 ]
 
 async function tables(sequelize: Sequelize): Promise<string[]> {

@@ -25,7 +25,9 @@ export interface BrowserHandle {
 export function useBrowser(): BrowserHandle {
   let browser: Browser | undefined
   const contexts: BrowserContext[] = []
-  beforeAll(async () => { browser = await launchChromium() })
+  beforeAll(async () => {
+    browser = await launchChromium()
+  })
   afterAll(async () => {
     for (const context of contexts) await context.close().catch(() => {})
     await browser?.close()

@@ -1,3 +1,4 @@
+/* eslint-disable @typescript-eslint/no-explicit-any -- test client: tests assert response bodies field by field, so bodies default to `any` */
 /**
  * A tiny HTTP client for API tests that keeps cookies like a browser would
  * (the sealed session cookie of nuxt-auth-utils).
@@ -34,8 +35,7 @@ export class ApiClient {
     if ((response.headers.get('content-type') ?? '').includes('json') && text) {
       try {
         parsed = JSON.parse(text)
-      }
-      catch { /* leave as text */ }
+      } catch { /* leave as text */ }
     }
     return { status: response.status, body: parsed as T, headers: response.headers }
   }

@@ -13,8 +13,7 @@ async function withAdmin<T>(fn: (client: pg.Client) => Promise<T>): Promise<T> {
   await client.connect()
   try {
     return await fn(client)
-  }
-  finally {
+  } finally {
     await client.end()
   }
 }

@@ -23,8 +23,8 @@ const root = fileURLToPath(new URL('../..', import.meta.url))
 export default async function setup(project: TestProject) {
   execFileSync('bash', ['scripts/pg.sh', 'start'], { cwd: root, stdio: 'inherit' })
   if (project.name === 'db') return
-  // One template per project, so projects that run in the same invocation never share it.
-  const templateDatabase = `tributary_template_${project.name}`
+  // One template per project and run, so projects and parallel runs never share (or drop) each other's.
+  const templateDatabase = `tributary_template_${project.name}_${process.pid}`
   project.provide('templateDatabase', templateDatabase)
   if (!existsSync(`${root}.output/server/index.mjs`)) {
     execFileSync('npx', ['nuxt', 'build'], { cwd: root, stdio: 'inherit' })

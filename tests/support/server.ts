@@ -29,7 +29,13 @@ export const demo = {
 } as const
 
 export interface CapturedMail {
-  id: string, to: string[] | string, from: string, subject: string, text: string, html?: string, date: string
+  id: string
+  to: string[] | string
+  from: string
+  subject: string
+  text: string
+  html?: string | null
+  date: string
   attachments: { filename: string, contentType: string, size: number }[]
 }
 
@@ -49,6 +55,66 @@ export interface TestServer {
   restart(extraEnv?: Record<string, string>): Promise<void>
   /** This file's private object store (s3rver on a free port, files in a temp dir); stop() simulates an outage, start() brings it back with the same files. */
   objectStore: { endpoint: string, bucket: string, directory: string, stop(): Promise<void>, start(): Promise<void> }
+  /** The simulation worker started with `useServer({ worker: true })` (undefined otherwise). */
+  worker?: TestWorker
+  /** Starts another simulation worker on this file's database (stopped in afterAll unless stopped before). */
+  startWorker(extraEnv?: Record<string, string>): Promise<TestWorker>
+}
+
+/** A simulation worker process (worker/index.ts) started by the harness. */
+export interface TestWorker {
+  child: ChildProcess
+  /** Everything the worker printed so far. */
+  output(): string
+  /** SIGTERM (graceful: the run in progress goes back to the queue), SIGKILL after 10 s. */
+  stop(): Promise<void>
+  /** SIGKILL at once, as a crash would. */
+  kill(): Promise<void>
+}
+
+/** Worker settings for tests: 2 threads, a 3-second lease and fast polling, so retries happen within seconds. */
+export const testWorkerEnv: Record<string, string> = {
+  TRIBUTARY_WORKER_THREADS: '2',
+  TRIBUTARY_RUN_LEASE_SECONDS: '3',
+  TRIBUTARY_WORKER_POLL_SECONDS: '0.5',
+  TRIBUTARY_QUEUE_MAINTENANCE_SECONDS: '5',
+}
+
+/**
+ * Starts `worker/index.ts` (through tsx) on `databaseUrl` and waits until it works the queue.
+ *
+ * @param databaseUrl - the test database
+ * @param extraEnv - overrides of testWorkerEnv
+ */
+export async function startTestWorker(databaseUrl: string, extraEnv: Record<string, string> = {}): Promise<TestWorker> {
+  let output = ''
+  const child = spawn(process.execPath, ['--import', 'tsx', 'worker/index.ts'], {
+    cwd: root, env: { ...process.env, NUXT_DATABASE_URL: databaseUrl, ...testWorkerEnv, ...extraEnv }, stdio: ['ignore', 'pipe', 'pipe'],
+  })
+  const collect = (d: Buffer) => {
+    output += d.toString()
+  }
+  child.stdout?.on('data', collect)
+  child.stderr?.on('data', collect)
+  const exited = new Promise<void>(resolve => child.once('exit', () => resolve()))
+  const ended = () => child.exitCode !== null || child.signalCode !== null
+  const halt = async (signal: NodeJS.Signals) => {
+    if (ended()) return
+    child.kill(signal)
+    const timer = setTimeout(() => child.kill('SIGKILL'), 10_000)
+    await exited
+    clearTimeout(timer)
+  }
+  const deadline = Date.now() + 60_000
+  while (!output.includes('working queue')) {
+    if (ended()) throw new Error(`The simulation worker exited early:\n${output}`)
+    if (Date.now() > deadline) {
+      await halt('SIGKILL')
+      throw new Error(`The simulation worker did not start in time:\n${output}`)
+    }
+    await new Promise(resolve => setTimeout(resolve, 100))
+  }
+  return { child, output: () => output, stop: () => halt('SIGTERM'), kill: () => halt('SIGKILL') }
 }
 
 async function waitForHealthy(url: string, child: ChildProcess, output: () => string): Promise<void> {
@@ -58,20 +124,25 @@ async function waitForHealthy(url: string, child: ChildProcess, output: () => st
     try {
       const response = await fetch(new URL('/api/health', url))
       if (response.ok) return
-    }
-    catch { /* not listening yet */ }
+    } catch { /* not listening yet */ }
     await new Promise(resolve => setTimeout(resolve, 100))
   }
   throw new Error(`The server did not become healthy in time:\n${output()}`)
 }
 
-export function useServer(options: { env?: Record<string, string> } = {}): TestServer {
+/**
+ * @param options.env - extra environment of the app process
+ * @param options.worker - also start a simulation worker (worker/index.ts) on the same database
+ * @param options.workerEnv - extra environment of that worker (see testWorkerEnv)
+ */
+export function useServer(options: { env?: Record<string, string>, worker?: boolean, workerEnv?: Record<string, string> } = {}): TestServer {
   let database: TestDatabase | undefined
   let child: ChildProcess | undefined
   let catcher: Awaited<ReturnType<typeof startMailCatcher>> | undefined
   let objectStore: ObjectStoreServer | undefined
   let objectStoreDir: string | undefined
   let log = ''
+  const workers: TestWorker[] = []
 
   const handle = {} as TestServer
 
@@ -80,8 +151,12 @@ export function useServer(options: { env?: Record<string, string> } = {}): TestS
     child = spawn(process.execPath, ['.output/server/index.mjs'], {
       cwd: root, env: { ...process.env, ...env }, stdio: ['ignore', 'pipe', 'pipe'],
     })
-    child.stdout?.on('data', (d: Buffer) => { log += d.toString() })
-    child.stderr?.on('data', (d: Buffer) => { log += d.toString() })
+    child.stdout?.on('data', (d: Buffer) => {
+      log += d.toString()
+    })
+    child.stderr?.on('data', (d: Buffer) => {
+      log += d.toString()
+    })
     await waitForHealthy(handle.url, child, () => log)
   }
 
@@ -138,9 +213,16 @@ export function useServer(options: { env?: Record<string, string> } = {}): TestS
       await launch(handle.env)
     }
     await launch(handle.env)
+    handle.startWorker = async (extraEnv = {}) => {
+      const worker = await startTestWorker(database!.url, { ...options.workerEnv, ...extraEnv })
+      workers.push(worker)
+      return worker
+    }
+    if (options.worker) handle.worker = await handle.startWorker()
   })
 
   afterAll(async () => {
+    await Promise.all(workers.map(worker => worker.stop()))
     await stop()
     await handle.db?.end()
     await catcher?.close()
@@ -160,8 +242,7 @@ export async function eventually<T>(check: () => Promise<T | undefined | null | 
     try {
       const value = await check()
       if (value) return value
-    }
-    catch (error) { last = error }
+    } catch (error) { last = error }
     await new Promise(resolve => setTimeout(resolve, 100))
   }
   throw new Error(`Condition not met within ${timeoutMs} ms${last ? `: ${String(last)}` : ''}`)

@@ -9,6 +9,13 @@ import { DataTypes, Model, type CreationOptional, type InferAttributes, type Inf
 import { OUTBOX_STATUSES, type OutboxStatus } from '../../../shared/types/db'
 import type { Agency } from './Agency'
 
+/** A file attached to a queued e-mail, stored with the row until it is sent. */
+export interface OutboxAttachment {
+  filename: string
+  contentType: string
+  contentBase64: string
+}
+
 export class OutboxMessage extends Model<InferAttributes<OutboxMessage>, InferCreationAttributes<OutboxMessage>> {
   declare id: CreationOptional<number>
   declare agencyId: CreationOptional<number | null>
@@ -21,6 +28,8 @@ export class OutboxMessage extends Model<InferAttributes<OutboxMessage>, InferCr
   declare nextAttemptAt: CreationOptional<Date>
   declare lastError: CreationOptional<string | null>
   declare sentAt: CreationOptional<Date | null>
+  /** Files sent with the message (migration 0006): [{ filename, contentType, contentBase64 }]. */
+  declare attachments: CreationOptional<OutboxAttachment[]>
   declare createdAt: CreationOptional<Date>
   declare updatedAt: CreationOptional<Date>
 
@@ -39,6 +48,7 @@ export class OutboxMessage extends Model<InferAttributes<OutboxMessage>, InferCr
       nextAttemptAt: { type: DataTypes.DATE, allowNull: false, defaultValue: DataTypes.NOW },
       lastError: { type: DataTypes.TEXT, allowNull: true },
       sentAt: { type: DataTypes.DATE, allowNull: true },
+      attachments: { type: DataTypes.JSONB, allowNull: false, defaultValue: [] },
       createdAt: DataTypes.DATE,
       updatedAt: DataTypes.DATE,
     }, { sequelize, modelName: 'OutboxMessage', tableName: 'outbox_messages', underscored: true })

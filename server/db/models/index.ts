@@ -15,17 +15,25 @@ import { Comment } from './Comment'
 import { Decision } from './Decision'
 import { EffectiveSizeEstimate } from './EffectiveSizeEstimate'
 import { GeneticDataset } from './GeneticDataset'
+import { IssuedBrief } from './IssuedBrief'
+import { MonitoringObservation } from './MonitoringObservation'
 import { OutboxMessage } from './OutboxMessage'
 import { Proposal } from './Proposal'
 import { ProposalVersion } from './ProposalVersion'
 import { Scenario } from './Scenario'
 import { SignInAttempt } from './SignInAttempt'
+import { SimulationRun } from './SimulationRun'
+import { Translocation } from './Translocation'
 import { Species } from './Species'
 import { Subpopulation } from './Subpopulation'
 import { User } from './User'
 import { UserToken } from './UserToken'
 
 export { Agency, Attachment, AuditEvent, CensusCount, Comment, Decision, EffectiveSizeEstimate, GeneticDataset, OutboxMessage, Proposal, ProposalVersion, Scenario, SignInAttempt, Species, Subpopulation, User, UserToken }
+export { MonitoringObservation, Translocation }
+export { SimulationRun }
+export { IssuedBrief }
+export type { AnimalSex, MovedAnimal } from './Translocation'
 export { normaliseEmail } from './User'
 export { hashToken } from './UserToken'
 export type { SubpopulationGeometry } from './Subpopulation'
@@ -39,13 +47,17 @@ const models = {
   Decision,
   EffectiveSizeEstimate,
   GeneticDataset,
+  IssuedBrief,
+  MonitoringObservation,
   OutboxMessage,
   Proposal,
   ProposalVersion,
   Scenario,
   SignInAttempt,
+  SimulationRun,
   Species,
   Subpopulation,
+  Translocation,
   User,
   UserToken,
 }
@@ -121,4 +133,14 @@ function associate(): void {
   AuditEvent.belongsTo(Agency, { ...noConstraint, foreignKey: 'agencyId', as: 'agency' })
   AuditEvent.belongsTo(User, { ...noConstraint, foreignKey: 'actorId', as: 'actor' })
   OutboxMessage.belongsTo(Agency, { ...noConstraint, foreignKey: 'agencyId', as: 'agency' })
+
+  // Monitoring after approval (migration 0007).
+  Proposal.hasMany(Translocation, { ...noConstraint, foreignKey: 'proposalId', as: 'translocations' })
+  Translocation.belongsTo(Proposal, { ...noConstraint, foreignKey: 'proposalId', as: 'proposal' })
+  Translocation.belongsTo(Subpopulation, { ...noConstraint, foreignKey: 'sourceId', as: 'source' })
+  Translocation.belongsTo(Subpopulation, { ...noConstraint, foreignKey: 'recipientId', as: 'recipient' })
+  Translocation.belongsTo(User, { ...noConstraint, foreignKey: 'recordedBy', as: 'recorder' })
+  Proposal.hasMany(MonitoringObservation, { ...noConstraint, foreignKey: 'proposalId', as: 'observations' })
+  MonitoringObservation.belongsTo(Proposal, { ...noConstraint, foreignKey: 'proposalId', as: 'proposal' })
+  MonitoringObservation.belongsTo(User, { ...noConstraint, foreignKey: 'recordedBy', as: 'recorder' })
 }

@@ -1,11 +1,11 @@
-import { binomialInversionFromTable, binomialInversionTable, binomialSetup, binomialWithSetup } from '../random/binomial'
+import { binomialBtrdAcceptanceTable, binomialBtrdWithSetup, binomialInversionFromTable, binomialInversionTable, binomialSetup } from '../random/binomial'
 import type { RandomStream } from '../random/streams'
 import { frequencyAfterSelection } from './selection-step'
 
 /** Largest number of sampled genes n for which setups are kept (≤ 4 MB per n). */
 export const MAXIMUM_CACHED_GENES = 65_536
 
-/** Entries per allele count: state, p*, then the sampler setup (6 entries). */
+/** Entries per allele count: the state, then the sampler setup (7 entries, p* last). */
 const STRIDE = 8
 const EMPTY = 0
 const DIRECT = 1
@@ -22,7 +22,8 @@ const TABLED = 2
  * Why: replicates revisit the same counts over and over; keeping the
  * constants saves a square root, divisions and an exp/log per draw, and the
  * flat array (8 doubles per count) stays in cache; counts drawn by
- * inversion also keep their pmf (no division per step). The draw is
+ * inversion also keep their pmf (no division per step), the others go
+ * straight to BTRD with its constants read from the array. The draw is
  * bit-for-bit the one `binomialDraw(random, n, p′)` would make, so using the
  * cache or not never changes a result.
  */
@@ -33,6 +34,8 @@ export class DriftStepCache {
   private readonly entries: Float64Array
   /** pmf tables of the counts drawn by inversion (few: those with n·p′ < 10 or n·(1 − p′) < 10). */
   private readonly inversionTables: (Float64Array | undefined)[]
+  /** BTRD acceptance tables of the other counts, made on their first draw (see `binomialBtrdAcceptanceTable`). */
+  private readonly acceptanceTables: (Float64Array | undefined)[]
 
   /**
    * @param genes - n, genes sampled per generation, integer in [1, MAXIMUM_CACHED_GENES]
@@ -45,6 +48,7 @@ export class DriftStepCache {
     this.h = h
     this.entries = new Float64Array((genes + 1) * STRIDE)
     this.inversionTables = new Array<Float64Array | undefined>(genes + 1).fill(undefined)
+    this.acceptanceTables = new Array<Float64Array | undefined>(genes + 1).fill(undefined)
   }
 
   /**
@@ -60,9 +64,11 @@ export class DriftStepCache {
     if (entries[offset] === EMPTY) this.fill(copies, offset)
     // Entries of a filled count are defined, hence the `as number` reads.
     const state = entries[offset] as number
+    // A count not drawn from a table uses the BTRD branch (binomialInversionTable
+    // returns a table for every inversion setup).
     const drawn = state > TABLED
       ? binomialInversionFromTable(random, this.inversionTables[copies] as Float64Array) // set with the state
-      : binomialWithSetup(random, this.genes, entries[offset + 1] as number, entries, offset + 2)
+      : binomialBtrdWithSetup(random, this.genes, entries, offset + 1, this.acceptanceTables[copies])
     return state === REFLECTED || state === REFLECTED + TABLED ? this.genes - drawn : drawn
   }
 
@@ -71,12 +77,13 @@ export class DriftStepCache {
     const reflected = selected > 0.5
     const probability = reflected ? 1 - selected : selected
     this.entries[offset] = reflected ? REFLECTED : DIRECT
-    this.entries[offset + 1] = probability
-    binomialSetup(this.genes, probability, this.entries, offset + 2)
-    const table = binomialInversionTable(this.genes, this.entries, offset + 2)
+    binomialSetup(this.genes, probability, this.entries, offset + 1)
+    const table = binomialInversionTable(this.genes, this.entries, offset + 1)
     if (table.length > 0) {
       this.inversionTables[copies] = table
       this.entries[offset] = (reflected ? REFLECTED : DIRECT) + TABLED
+    } else {
+      this.acceptanceTables[copies] = binomialBtrdAcceptanceTable(this.genes, this.entries, offset + 1)
     }
   }
 }

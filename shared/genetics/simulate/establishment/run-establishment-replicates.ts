@@ -39,6 +39,24 @@ interface BlockTally {
   lossTimes: number[]
   /** Drift-step caches per number of sampled genes (n ≤ MAXIMUM_CACHED_GENES), built on demand. */
   caches: Map<number, DriftStepCache>
+  /**
+   * quietUntil[g]: the first generation after g at which an event happens or
+   * the number of sampled genes changes (the horizon if none) — generations
+   * g…quietUntil[g] − 1 can run in the tight drift-only loop.
+   */
+  quietUntil: Int32Array
+}
+
+/** See `BlockTally.quietUntil`. */
+function quietStretches(plan: EstablishmentPlan): Int32Array {
+  const { generations, eventAt, sampledGenes } = plan
+  const until = new Int32Array(generations)
+  let next = generations
+  for (let generation = generations - 1; generation >= 0; generation--) {
+    until[generation] = next
+    if (eventAt[generation] === 1 || (generation > 0 && sampledGenes[generation] !== sampledGenes[generation - 1])) next = generation
+  }
+  return until
 }
 
 /**
@@ -83,6 +101,7 @@ export function runEstablishmentBlock(fn: string, params: EstablishmentParams, b
     establishmentTimes: [],
     lossTimes: [],
     caches: new Map(),
+    quietUntil: quietStretches(plan),
   }
   const streams = new ReplicateStreams(block.seed, block.firstReplicate)
   const progressStep = Math.max(1, Math.floor(block.replicates / 100))
@@ -125,7 +144,7 @@ export function runEstablishmentBlock(fn: string, params: EstablishmentParams, b
  * until fixation, definitive loss or the horizon.
  */
 function runOneReplicate(tally: BlockTally, random: RandomStream): number {
-  const { plan, grid, counts } = tally
+  const { plan, grid, counts, quietUntil } = tally
   const { generations, census, sampledGenes, eventAt, s, h, sourceFrequency, introducedCopies, migrantsPerEvent, migrationRate, lastInputGeneration } = plan
   const stayWeight = 1 - migrationRate
   const immigrantShare = migrationRate * sourceFrequency
@@ -138,7 +157,33 @@ function runOneReplicate(tally: BlockTally, random: RandomStream): number {
   let copies = 0
   let genesOfCopies = 0
   let cache: DriftStepCache | undefined
-  for (let generation = 0; generation < generations; generation++) {
+  let generation = 0
+  while (generation < generations) {
+    // Quiet stretch: no event, no migration, the same number of genes as the
+    // last drift step and the allele segregating — only record and draw.
+    // (The same steps as the general loop below, in the same order.)
+    if (migrationRate === 0 && genesOfCopies > 0 && copies > 0 && copies < genesOfCopies && cache !== undefined
+      && cache.genes === genesOfCopies && eventAt[generation] !== 1 && sampledGenes[generation] === genesOfCopies) {
+      const genes = genesOfCopies
+      const end = quietUntil[generation] ?? generations
+      for (; generation < end; generation++) {
+        if (generation === nextGrid) {
+          const index = gridIndex * (TRAJECTORY_BINS + 1) + frequencyBin(copies / genes)
+          counts[index] = (counts[index] ?? 0) + 1
+          gridIndex++
+          nextGrid = gridIndex < gridLength ? grid[gridIndex] ?? -1 : -1
+        }
+        copies = cache.draw(random, copies)
+        if (copies === genes) return finishFixed(tally, generation + 1, gridIndex)
+        if (copies === 0) {
+          if (generation + 1 > lastInputGeneration) return finishLost(tally, generation + 1, gridIndex)
+          generation++
+          break
+        }
+      }
+      frequency = copies / genes
+      continue
+    }
     if (eventAt[generation] === 1) {
       const twiceCensus = 2 * (census[generation] ?? 1)
       const arriving = introducedCopies >= 0 ? introducedCopies : binomialDraw(random, 2 * migrantsPerEvent, sourceFrequency)
@@ -159,6 +204,7 @@ function runOneReplicate(tally: BlockTally, random: RandomStream): number {
     }
     if (frequency === 0) {
       if (generation >= lastInputGeneration) return finishLost(tally, generation, gridIndex)
+      generation++
       continue // nothing can happen until the next input
     }
     if (frequency >= 1) return finishFixed(tally, generation, gridIndex)
@@ -168,11 +214,13 @@ function runOneReplicate(tally: BlockTally, random: RandomStream): number {
       copies = cache.draw(random, copies)
     } else {
       copies = binomialDraw(random, genes, frequencyAfterSelection(frequency, s, h))
+      if (genes <= MAXIMUM_CACHED_GENES && (cache === undefined || cache.genes !== genes)) cache = cacheFor(tally, genes)
     }
     genesOfCopies = genes
     if (copies === genes) return finishFixed(tally, generation + 1, gridIndex)
     frequency = copies / genes
     if (copies === 0 && generation + 1 > lastInputGeneration) return finishLost(tally, generation + 1, gridIndex)
+    generation++
   }
   if (generations === nextGrid) {
     const index = gridIndex * (TRAJECTORY_BINS + 1) + frequencyBin(frequency)

@@ -41,7 +41,7 @@ export function sampleBinomial(random: RandomStream, trials: number, probability
 }
 
 /** Number of entries `binomialSetup` writes. */
-export const BINOMIAL_SETUP_SIZE = 6
+export const BINOMIAL_SETUP_SIZE = 7
 
 /** Branch codes stored in entry 0 of a setup. */
 const INVERSION = 0
@@ -72,9 +72,15 @@ export function binomialDraw(random: RandomStream, trials: number, probability: 
 
 /**
  * The per-(n, p) constants of the sampler for 0 < p ≤ ½, written to
- * out[offset … offset + 5], so that callers drawing many times from the same
- * (n, p) — e.g. the same allele count in many replicates — can keep them.
- * A draw with a stored setup is bit-for-bit the draw `binomialDraw` makes.
+ * out[offset … offset + 6] (the last entry is p itself), so that callers
+ * drawing many times from the same (n, p) — e.g. the same allele count in
+ * many replicates — can keep them. A draw with a stored setup is
+ * bit-for-bit the draw `binomialDraw` makes.
+ *
+ * The samplers read their constants from this array instead of taking them
+ * as arguments: doubles passed to a call that is not inlined are boxed (a
+ * heap allocation each), and that garbage once cost a quarter of the
+ * allele-frequency simulation's time.
  *
  * @param trials - n, integer ≥ 1
  * @param probability - p in (0, ½]
@@ -88,6 +94,7 @@ export function binomialSetup(trials: number, probability: number, out: Float64A
     out[offset + 1] = Math.exp(trials * Math.log1p(-probability))
     out[offset + 2] = Math.min(trials, mean + 10 * Math.sqrt(mean * (1 - probability) + 1))
     out[offset + 3] = probability / (1 - probability)
+    out[offset + 6] = probability
     return
   }
   const spread = Math.sqrt(mean * (1 - probability))
@@ -98,6 +105,7 @@ export function binomialSetup(trials: number, probability: number, out: Float64A
   out[offset + 3] = -0.0873 + 0.0248 * b + 0.01 * probability
   out[offset + 4] = mean + 0.5
   out[offset + 5] = 0.92 - 4.2 / b
+  out[offset + 6] = probability
 }
 
 /**
@@ -106,18 +114,13 @@ export function binomialSetup(trials: number, probability: number, out: Float64A
  *
  * @param random - seeded generator
  * @param trials - n
- * @param probability - p in (0, ½]
+ * @param probability - p in (0, ½] (the same p as stored in the setup, which is what is used)
  * @param setup - array holding the constants
  * @param offset - where they start
  * @returns an integer in [0, n]
  */
 export function binomialWithSetup(random: RandomStream, trials: number, probability: number, setup: Float64Array, offset: number): number {
-  // The setup entries exist by contract, hence the `as number` reads.
-  if (setup[offset] === INVERSION) {
-    return binomialInversion(random, trials, setup[offset + 1] as number, setup[offset + 2] as number, setup[offset + 3] as number)
-  }
-  return binomialBtrd(random, trials, probability, setup[offset + 1] as number, setup[offset + 2] as number,
-    setup[offset + 3] as number, setup[offset + 4] as number, setup[offset + 5] as number)
+  return setup[offset] === INVERSION ? binomialInversion(random, trials, setup, offset) : binomialBtrdWithSetup(random, trials, setup, offset)
 }
 
 /**
@@ -170,8 +173,12 @@ export function binomialInversionFromTable(random: RandomStream, table: Float64A
   return successes
 }
 
-/** Inversion for p ≤ ½ and n·p < 10 (see `sampleBinomial`). */
-function binomialInversion(random: RandomStream, trials: number, probabilityOfZero: number, bound: number, odds: number): number {
+/** Inversion for p ≤ ½ and n·p < 10 (see `sampleBinomial`), constants from a setup. */
+function binomialInversion(random: RandomStream, trials: number, setup: Float64Array, offset: number): number {
+  // The entries exist by contract, hence the `as number` reads.
+  const probabilityOfZero = setup[offset + 1] as number
+  const bound = setup[offset + 2] as number
+  const odds = setup[offset + 3] as number
   let successes = 0
   let pmf = probabilityOfZero
   let remaining = uniform32(random)
@@ -208,15 +215,103 @@ function stirlingTail(k: number): number {
   return (1 / 12 - (1 / 360 - 1 / 1260 / square) / square) / next
 }
 
+/** Largest |k − mode| for which BTRD accepts by the exact pmf ratio (step 3.1). */
+const RATIO_REACH = 15
+
+/** Layout of a BTRD acceptance table (`binomialBtrdAcceptanceTable`). */
+const ACCEPT_ODDS = 0
+const ACCEPT_ALPHA = 1
+const ACCEPT_MODE = 2
+const ACCEPT_PREFIX = 3
+/** f(k)/f(mode) for k = mode − 15 … mode + 15 starts here. */
+const ACCEPT_RATIOS = 4
+
+/** Number of entries of a BTRD acceptance table. */
+export const BTRD_ACCEPTANCE_SIZE = ACCEPT_RATIOS + 2 * RATIO_REACH + 1
+
+/**
+ * f(k)/f(m) for BTRD step 3.1 by the pmf recurrence f(i)/f(i − 1) = (n + 1 − i)·r/i,
+ * multiplied (k > m) or divided (k < m) in increasing i. The one place this
+ * ratio is computed, so cached tables and direct draws agree to the bit.
+ */
+function btrdRatio(trials: number, odds: number, mode: number, k: number): number {
+  const step = (trials + 1) * odds
+  let ratio = 1
+  if (mode < k) {
+    for (let i = mode + 1; i <= k; i++) ratio *= step / i - odds
+  } else if (mode > k) {
+    for (let i = k + 1; i <= mode; i++) ratio /= step / i - odds
+  }
+  return ratio
+}
+
+/**
+ * The k-independent start of BTRD's exact log ratio (step 3.4), in the
+ * order the full sum adds its terms.
+ */
+function btrdLogPrefix(trials: number, odds: number, mode: number): number {
+  return (mode + 0.5) * Math.log((mode + 1) / (odds * (trials - mode + 1)))
+    + stirlingTail(mode) + stirlingTail(trials - mode)
+}
+
+/**
+ * What BTRD's acceptance steps compute from (n, p) alone, for a setup made
+ * by `binomialSetup` in the BTRD branch: r = p/(1 − p), α, the mode m, the
+ * k-independent part of the exact log ratio, and the exact pmf ratios
+ * f(k)/f(m) for |k − m| ≤ 15 (NaN outside 0…n). Callers that draw many times
+ * from one (n, p) keep it; `binomialBtrdWithSetup` then skips the
+ * recurrence and most logarithms, with bit-for-bit the same draws.
+ *
+ * @param trials - n
+ * @param setup - array holding the BTRD constants
+ * @param offset - where they start
+ * @returns a new array of BTRD_ACCEPTANCE_SIZE entries
+ */
+export function binomialBtrdAcceptanceTable(trials: number, setup: Float64Array, offset: number): Float64Array {
+  // The entries exist by contract, hence the `as number` reads.
+  const spread = setup[offset + 1] as number
+  const b = setup[offset + 2] as number
+  const probability = setup[offset + 6] as number
+  const odds = probability / (1 - probability)
+  const mode = Math.floor((trials + 1) * probability)
+  const table = new Float64Array(BTRD_ACCEPTANCE_SIZE)
+  table[ACCEPT_ODDS] = odds
+  table[ACCEPT_ALPHA] = (2.83 + 5.1 / b) * spread
+  table[ACCEPT_MODE] = mode
+  table[ACCEPT_PREFIX] = btrdLogPrefix(trials, odds, mode)
+  for (let j = 0; j <= 2 * RATIO_REACH; j++) {
+    const k = mode - RATIO_REACH + j
+    table[ACCEPT_RATIOS + j] = k < 0 || k > trials ? Number.NaN : btrdRatio(trials, odds, mode, k)
+  }
+  return table
+}
+
 /**
  * BTRD for p ≤ ½ and n·p ≥ 10: transformed rejection with decomposition
- * (Hörmann 1993), steps 1–3.4 of the paper. Step 1 accepts about 86 % of
+ * (Hörmann 1993), steps 1–3.4 of the paper, with the constants of a setup
+ * made by `binomialSetup` for the BTRD branch. Step 1 accepts about 86 % of
  * the box region with a single uniform; otherwise a second uniform completes
  * the (u, v) pair and the candidate is accepted by, in turn, the exact pmf
  * ratio by recursion when |k − m| ≤ 15, a squeeze on its logarithm, and the
- * exact log ratio written with Stirling tails.
+ * exact log ratio written with Stirling tails. One function, so that no
+ * double crosses a call (see `binomialSetup`).
+ *
+ * @param random - seeded generator
+ * @param trials - n
+ * @param setup - array holding the BTRD constants
+ * @param offset - where they start
+ * @param acceptance - optional `binomialBtrdAcceptanceTable` of the same setup
+ *   (same draws, fewer operations when a candidate needs the acceptance steps)
+ * @returns an integer in [0, n]
  */
-function binomialBtrd(random: RandomStream, trials: number, probability: number, spread: number, b: number, a: number, c: number, boxLimit: number): number {
+export function binomialBtrdWithSetup(random: RandomStream, trials: number, setup: Float64Array, offset: number, acceptance?: Float64Array): number {
+  // The entries exist by contract, hence the `as number` reads.
+  const spread = setup[offset + 1] as number
+  const b = setup[offset + 2] as number
+  const a = setup[offset + 3] as number
+  const c = setup[offset + 4] as number
+  const boxLimit = setup[offset + 5] as number
+  const probability = setup[offset + 6] as number
   const quickLimit = 0.86 * boxLimit
   for (;;) {
     let v = uniform32(random)
@@ -238,40 +333,31 @@ function binomialBtrd(random: RandomStream, trials: number, probability: number,
     const us = 0.5 - Math.abs(u)
     const k = Math.floor((2 * a / us + b) * u + c)
     if (k < 0 || k > trials) continue
-    if (binomialBtrdAccepts(trials, probability, spread, a, b, k, us, v)) return k
-  }
-}
 
-/** BTRD steps 3.0–3.4: is the candidate k accepted for this (u, v)? */
-function binomialBtrdAccepts(trials: number, probability: number, spread: number, a: number, b: number, k: number, us: number, v: number): boolean {
-  const odds = probability / (1 - probability)
-  const alpha = (2.83 + 5.1 / b) * spread
-  const mode = Math.floor((trials + 1) * probability)
-  const scaled = v * alpha / (a / (us * us) + b)
-  const distance = Math.abs(k - mode)
-  if (distance <= 15) {
-    // Step 3.1: f(k)/f(m) by the pmf recurrence f(i)/f(i − 1) = (n + 1 − i)·r/i.
-    const step = (trials + 1) * odds
-    let ratio = 1
-    if (mode < k) {
-      for (let i = mode + 1; i <= k; i++) ratio *= step / i - odds
-    } else if (mode > k) {
-      for (let i = k + 1; i <= mode; i++) ratio /= step / i - odds
+    // Steps 3.0–3.4: is the candidate k accepted for this (u, v)?
+    const odds = acceptance ? acceptance[ACCEPT_ODDS] as number : probability / (1 - probability)
+    const alpha = acceptance ? acceptance[ACCEPT_ALPHA] as number : (2.83 + 5.1 / b) * spread
+    const mode = acceptance ? acceptance[ACCEPT_MODE] as number : Math.floor((trials + 1) * probability)
+    const scaled = v * alpha / (a / (us * us) + b)
+    const distance = Math.abs(k - mode)
+    if (distance <= RATIO_REACH) {
+      // Step 3.1: the exact ratio f(k)/f(m).
+      const ratio = acceptance ? acceptance[ACCEPT_RATIOS + k - mode + RATIO_REACH] as number : btrdRatio(trials, odds, mode, k)
+      if (scaled <= ratio) return k
+      continue
     }
-    return scaled <= ratio
+    // Step 3.2: squeeze on ln f(k)/f(m) (as in BTPE).
+    const logV = Math.log(scaled)
+    const variance = spread * spread
+    const rho = (distance / variance) * ((distance * (distance / 3 + 0.625) + 1 / 6) / variance + 0.5)
+    const t = -distance * distance / (2 * variance)
+    if (logV < t - rho) return k
+    if (logV > t + rho) continue
+    // Steps 3.3–3.4: the exact log ratio.
+    const bound = (acceptance ? acceptance[ACCEPT_PREFIX] as number : btrdLogPrefix(trials, odds, mode))
+      + (trials + 1) * Math.log((trials - mode + 1) / (trials - k + 1))
+      + (k + 0.5) * Math.log(odds * (trials - k + 1) / (k + 1))
+      - stirlingTail(k) - stirlingTail(trials - k)
+    if (logV <= bound) return k
   }
-  // Step 3.2: squeeze on ln f(k)/f(m) (as in BTPE).
-  const logV = Math.log(scaled)
-  const variance = spread * spread
-  const rho = (distance / variance) * ((distance * (distance / 3 + 0.625) + 1 / 6) / variance + 0.5)
-  const t = -distance * distance / (2 * variance)
-  if (logV < t - rho) return true
-  if (logV > t + rho) return false
-  // Steps 3.3–3.4: the exact log ratio.
-  const bound = (mode + 0.5) * Math.log((mode + 1) / (odds * (trials - mode + 1)))
-    + stirlingTail(mode) + stirlingTail(trials - mode)
-    + (trials + 1) * Math.log((trials - mode + 1) / (trials - k + 1))
-    + (k + 0.5) * Math.log(odds * (trials - k + 1) / (k + 1))
-    - stirlingTail(k) - stirlingTail(trials - k)
-  return logV <= bound
 }

@@ -2,6 +2,7 @@ import { xoroshiro128plus, xoroshiro128plusFromState } from 'pure-rand/generator
 import type { RandomGenerator } from 'pure-rand/types/RandomGenerator'
 import type { JumpableRandomGenerator } from 'pure-rand/types/JumpableRandomGenerator'
 import { requireInteger } from '../../validate'
+import { jumpedState } from './jump-table'
 
 /**
  * The seeded generator every stochastic engine function takes as a parameter.
@@ -20,8 +21,8 @@ export type RandomStream = RandomGenerator
  * (Blackman & Vigna 2018, "Scrambled linear pseudorandom number generators",
  * the jump polynomial implemented by pure-rand). Stream 0 (no jump) is kept for
  * quantities shared by all replicates (see `sharedStream`).
- * Cost: O(replicate) jumps of 128 cheap steps each; use `ReplicateStreams`
- * to walk a range of consecutive replicates in O(range) instead.
+ * Cost: O(log replicate) table lookups (`jumpedState`); use
+ * `ReplicateStreams` to walk a range of consecutive replicates.
  *
  * @param seed - any integer; only its low 32 bits are used (`seed | 0`)
  * @param replicate - replicate index, integer ≥ 0
@@ -32,9 +33,7 @@ export type RandomStream = RandomGenerator
  */
 export function replicateStream(seed: number, replicate: number): JumpableRandomGenerator {
   requireInteger('replicateStream', 'replicate', replicate, 0)
-  const generator = sharedStream(seed)
-  for (let jump = 0; jump <= replicate; jump++) generator.jump()
-  return generator
+  return xoroshiro128plusFromState(jumpedState(sharedStream(seed).getState(), replicate + 1))
 }
 
 /**
@@ -54,7 +53,8 @@ export function sharedStream(seed: number): JumpableRandomGenerator {
 }
 
 /**
- * Walks the streams of replicates first, first + 1, … in O(1) jumps each.
+ * Walks the streams of replicates first, first + 1, … in one jump each, after
+ * an O(log first) skip to the first.
  *
  * @example
  * const streams = new ReplicateStreams(42, 10)
@@ -62,7 +62,8 @@ export function sharedStream(seed: number): JumpableRandomGenerator {
  * streams.next() // same state as replicateStream(42, 11)
  */
 export class ReplicateStreams {
-  private readonly cursor: JumpableRandomGenerator
+  /** State of the stream of the replicate before the next one. */
+  private state: number[]
 
   /**
    * @param seed - any integer; only its low 32 bits are used
@@ -70,14 +71,13 @@ export class ReplicateStreams {
    */
   constructor(seed: number, first: number) {
     requireInteger('ReplicateStreams', 'first', first, 0)
-    this.cursor = sharedStream(seed)
-    for (let jump = 0; jump < first; jump++) this.cursor.jump()
+    this.state = jumpedState(sharedStream(seed).getState(), first)
   }
 
   /** Stream of the next replicate in order. */
   next(): JumpableRandomGenerator {
-    this.cursor.jump()
-    return this.cursor.clone()
+    this.state = jumpedState(this.state, 1)
+    return xoroshiro128plusFromState(this.state)
   }
 }
 

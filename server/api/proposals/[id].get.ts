@@ -1,0 +1,15 @@
+/**
+ * GET /api/proposals/:id → 200 ProposalDetailResponse: the proposal, recipient and sources with
+ * their record figures, scenarios (baseline first), author, reviewer and last save.
+ * Any signed-in role of the proposal's agency; another agency's proposal → 404.
+ */
+import type { ProposalDetailResponse } from '#shared/schemas/proposal'
+import { findAgencyProposal } from '../../utils/proposal-access'
+import { proposalDetail } from '../../utils/proposal-detail'
+
+export default defineEventHandler(async (event): Promise<ProposalDetailResponse> => {
+  const user = await requireUser(event)
+  const { id } = getParamsWith(event, RecordIdParamsSchema)
+  const proposal = await findAgencyProposal(user, id)
+  return proposalDetail(proposal)
+})

@@ -1,0 +1,23 @@
+/**
+ * GET /api/subpopulations?speciesId= → 200 { items: SubpopulationDto[] } — the agency's
+ * subpopulations (of one species when `speciesId` is given) by name, with boundary, latest
+ * census, latest Ne estimate, working effective size and status. 404 when the species belongs
+ * to another agency. Any signed-in role.
+ */
+import { z } from 'zod'
+import type { SubpopulationListResponse } from '#shared/atlas/types'
+import { ownSpecies } from '../../atlas/records'
+import { loadSubpopulationDtos } from '../../atlas/subpopulation-dto'
+
+const QuerySchema = z.object({
+  speciesId: RecordIdSchema.optional(),
+})
+
+export default defineEventHandler(async (event): Promise<SubpopulationListResponse> => {
+  const user = await requireUser(event)
+  const { speciesId } = getQueryWith(event, QuerySchema)
+  const db = await useDb()
+  if (speciesId !== undefined) await ownSpecies(db.models, user.agencyId, speciesId)
+  const items = await loadSubpopulationDtos(db, { agencyId: user.agencyId, ...(speciesId === undefined ? {} : { speciesId }) })
+  return { items }
+})
