@@ -14,6 +14,8 @@ export default defineEventHandler(async (event): Promise<PagedResponse<OutboxMes
   const { models } = await useDb()
   const { rows, count } = await models.OutboxMessage.findAndCountAll({
     where: { ...agencyScope(admin), ...(status ? { status } : {}) },
+    // The list never shows attachment contents (whole signed PDFs, base64): don't load them per page.
+    attributes: { exclude: ['attachments'] },
     order: [['createdAt', 'DESC'], ['id', 'DESC']],
     limit: PAGE_SIZE,
     offset: (page - 1) * PAGE_SIZE,
