@@ -223,14 +223,20 @@ async function readLimitedText(event: H3Event, maxBytes: number): Promise<string
   }
   const chunks: Buffer[] = []
   let total = 0
-  for await (const chunk of request as AsyncIterable<Buffer | string>) {
-    const buffer = typeof chunk === 'string' ? Buffer.from(chunk) : chunk
-    total += buffer.length
-    if (total > maxBytes) {
-      request.resume() // drain the rest so the 413 answer can be sent
-      throw payloadTooLarge(maxBytes)
+  try {
+    for await (const chunk of request as AsyncIterable<Buffer | string>) {
+      const buffer = typeof chunk === 'string' ? Buffer.from(chunk) : chunk
+      total += buffer.length
+      if (total > maxBytes) {
+        request.resume() // drain the rest so the 413 answer can be sent
+        throw payloadTooLarge(maxBytes)
+      }
+      chunks.push(buffer)
     }
-    chunks.push(buffer)
+  } catch (error) {
+    if (isError(error)) throw error
+    // The client went away mid-body ("aborted", ECONNRESET): its fault, not the database's.
+    throw createError({ status: 400, statusText: 'Bad Request', message: 'The request body was cut off before it arrived in full; send it again.' })
   }
   return Buffer.concat(chunks).toString('utf8')
 }
