@@ -1,0 +1,36 @@
+/**
+ * Opens the session cookie once per distinct sealed value (see server/utils/session-cache.ts):
+ * a remembered session is placed where h3 looks for it (`event.context.sessions[name]`), so
+ * nuxt-auth-utils' `getUserSession` does not open the cookie again; otherwise the cookie is
+ * opened here with the same settings nuxt-auth-utils uses and the result remembered.
+ * A cookie that does not open (tampered, expired) is left to h3 exactly as before.
+ */
+import { getSession, type SessionConfig } from 'h3'
+import { rememberedSession, rememberSession, type CachedSession } from '../utils/session-cache'
+
+let config: SessionConfig | undefined
+
+/** The session settings nuxt-auth-utils builds: runtimeConfig.session, NUXT_SESSION_PASSWORD first. */
+function sessionConfig(): SessionConfig {
+  const runtime = useRuntimeConfig().session as SessionConfig
+  config ??= { ...runtime, password: process.env.NUXT_SESSION_PASSWORD || runtime.password }
+  return config
+}
+
+export default defineEventHandler(async (event) => {
+  const settings = sessionConfig()
+  const name = settings.name ?? 'h3'
+  const sealed = getCookie(event, name)
+  if (!sealed) return
+  const remembered = rememberedSession(sealed)
+  if (remembered) {
+    event.context.sessions ??= Object.create(null)
+    event.context.sessions[name] = remembered
+    return
+  }
+  const session = await getSession(event, settings) as CachedSession
+  // A cookie that did not open gets a new session and a new cookie from h3: not remembered.
+  const setCookies = [event.node.res.getHeader('set-cookie') ?? []].flat().map(String)
+  if (setCookies.some(cookie => cookie.startsWith(`${name}=`))) return
+  if (session.id && settings.maxAge) rememberSession(sealed, session, settings.maxAge)
+})
