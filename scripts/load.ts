@@ -1,7 +1,7 @@
 /**
  * `npm run load`: load figures for the built server, on loopback, in bounded time.
  *
- * Starts the built app (.output) on a free port against a throw-away copy of the demo database
+ * Starts the built app (.output, through scripts/serve.mjs as `npm start` does) on a free port against a throw-away copy of the demo database
  * (created, migrated and seeded here, dropped at the end), signs in as the demo biologist and
  * drives it with autocannon (100 connections):
  *   1. each main read route for TRIBUTARY_LOAD_SECONDS (default 20 s; 3 routes → 60 s):
@@ -52,16 +52,32 @@ function runTsx(script: string): void {
   if (result.status !== 0) throw new Error(`${script} failed:\n${result.stdout}\n${result.stderr}`)
 }
 
-/** CPU time (user + system) a process has used so far, in ms (Linux /proc; clock ticks of 10 ms). */
-function cpuMilliseconds(pid: number): number {
-  const fields = readFileSync(`/proc/${pid}/stat`, 'utf8').split(') ')[1]?.split(' ') ?? []
-  return (Number(fields[11]) + Number(fields[12])) * 10
+/** The server's processes: the one started and its children (the cluster's app processes). */
+function serverProcesses(pid: number): number[] {
+  let children: number[] = []
+  try {
+    children = readFileSync(`/proc/${pid}/task/${pid}/children`, 'utf8').trim().split(/\s+/).filter(Boolean).map(Number)
+  } catch { /* no children file: a single process */ }
+  return [pid, ...children]
 }
 
-/** Resident memory of a process in MB (Linux /proc). */
+/** CPU time (user + system) the server's processes have used so far, in ms (Linux /proc; clock ticks of 10 ms). */
+function cpuMilliseconds(pid: number): number {
+  let total = 0
+  for (const process of serverProcesses(pid)) {
+    const fields = readFileSync(`/proc/${process}/stat`, 'utf8').split(') ')[1]?.split(' ') ?? []
+    total += (Number(fields[11]) + Number(fields[12])) * 10
+  }
+  return total
+}
+
+/** Resident memory of the server's processes together, in MB (Linux /proc). */
 function residentMegabytes(pid: number): number {
-  const status = readFileSync(`/proc/${pid}/status`, 'utf8')
-  const kilobytes = Number(/VmRSS:\s+(\d+)/.exec(status)?.[1] ?? Number.NaN)
+  let kilobytes = 0
+  for (const process of serverProcesses(pid)) {
+    const status = readFileSync(`/proc/${process}/status`, 'utf8')
+    kilobytes += Number(/VmRSS:\s+(\d+)/.exec(status)?.[1] ?? Number.NaN)
+  }
   return kilobytes / 1024
 }
 
@@ -137,7 +153,8 @@ async function main(): Promise<number> {
     runTsx('scripts/db-seed.ts')
     const port = await freePort()
     const url = `http://127.0.0.1:${port}`
-    server = spawn(process.execPath, ['.output/server/index.mjs'], {
+    // The way `npm start` serves: scripts/serve.mjs, one app process per core.
+    server = spawn(process.execPath, ['scripts/serve.mjs'], {
       cwd: root, stdio: ['ignore', 'ignore', 'inherit'],
       env: { ...process.env, PORT: String(port), HOST: '127.0.0.1', NODE_ENV: 'production', NUXT_DATABASE_URL: databaseUrl, NUXT_APP_URL: url },
     })
@@ -167,7 +184,7 @@ async function main(): Promise<number> {
     const readList = Object.values(reads)
     const mixed = [readList[0]!, writes[0]!, readList[1]!, readList[2]!, readList[0]!, writes[1]!, readList[1]!, readList[2]!, readList[0]!, readList[1]!]
 
-    console.log(`Load: ${connections} connections, ${seconds} s per phase, server pid ${server.pid} on ${url} (database ${databaseName})`)
+    console.log(`Load: ${connections} connections, ${seconds} s per phase, ${serverProcesses(server.pid!).length} server process(es) under pid ${server.pid} on ${url} (database ${databaseName}; TRIBUTARY_SERVER_PROCESSES sets the number of app processes)`)
     // Warm-up so the first phase does not measure module loading and JIT.
     await phase('warm-up', url, readList, true, server.pid!)
     console.log(['phase'.padEnd(34), 'requests'.padStart(8), 'errors'.padStart(6), 'req/s'.padStart(7), 'p50 ms'.padStart(7), 'p95 ms'.padStart(7), 'p99 ms'.padStart(7), 'RSS MB'.padStart(7), 'CPU ms/req'.padStart(9)].join(' '))

@@ -33,4 +33,5 @@ setsid npm run --silent worker >>"$TRIBUTARY_STATE_DIR/worker.log" 2>&1 &
 WORKER_PID=$!
 trap 'kill -TERM -- "-$WORKER_PID" 2>/dev/null || true; wait "$WORKER_PID" 2>/dev/null || true' EXIT
 trap 'exit 130' INT TERM
-node .output/server/index.mjs
+# One app process per core (TRIBUTARY_SERVER_PROCESSES), see scripts/serve.mjs.
+node scripts/serve.mjs
