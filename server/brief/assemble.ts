@@ -8,6 +8,7 @@
 import type { Geometry } from 'geojson'
 import { CAUTIONS, PUBLISHED_LETHAL_EQUIVALENTS, outbreedingRisk, type CautionId, type OutbreedingQuestion, type ScreenAnswer } from '../../shared/genetics'
 import { computeScenarioResults } from '../../shared/proposals/results'
+import { rememberedExactVector } from '../utils/exact-chain-memo'
 import { EXPLANATIONS, type ExplanationId } from '../../shared/proposals/explanations'
 import type { ScenarioInputsLike, ScenarioResults, VariantEstablishment } from '../../shared/proposals/types'
 import { OUTBREEDING_QUESTIONS } from '../../shared/schemas/proposal'
@@ -223,7 +224,7 @@ function computeScenario(record: ScenarioRecord, records: BriefRecords, recommen
       recipient: { census: census ?? 1, effectiveSize: effectiveSize ?? 1, generationTimeYears: recipient.generationTimeYears, initialInbreeding: 0 },
       inputs: record.inputs,
       outbreedingAnswers: null,
-    })
+    }, { exactVector: rememberedExactVector })
   } catch (error) {
     const reason = error instanceof Error ? error.message : String(error)
     return { scenario: { ...empty, notes: [`The results could not be computed: ${reason}`] }, results: null }

@@ -16,12 +16,12 @@
  * with an issue at the parameter (engineRangeErrorIssue).
  */
 import {
-  FIXATION_PROBABILITY_CAUTIONS, branchingSurvivalProbability, cautionsFor, exactFixationProbability,
+  FIXATION_PROBABILITY_CAUTIONS, branchingSurvivalProbability, cautionsFor,
   fixationMethodWarnings, fixationProbability, haldaneApproximation, log10FixationProbability, type Caution, type CautionId,
 } from '#shared/genetics'
 import { variantEstablishment } from '#shared/proposals/establishment'
-import { computeExactVector } from '#shared/proposals/results'
 import type { CalcCautionDto, EstablishmentCalcResponse } from '#shared/schemas/scenario'
+import { rememberedExactVector } from './exact-chain-memo'
 import type { InputIssue } from './validate'
 
 /** Largest census for which the calc route runs the exact chain (issue 6). */
@@ -41,6 +41,16 @@ export interface EstablishmentCalcRequest {
 const finiteOrNull = (value: number): number | null => (Number.isFinite(value) ? value : null)
 
 const cautionDto = (caution: Caution): CalcCautionDto => ({ id: caution.id, title: caution.title, text: caution.text, source: caution.source })
+
+/**
+ * `exactFixationProbability({ census, s, h, copies })` read off the remembered chain vector
+ * (server/utils/exact-chain-memo.ts): the same numbers, computed once per (census, s, h).
+ */
+function exactFromVector(census: number, s: number, h: number, copies: number): number {
+  if (copies === 0) return 0
+  if (copies === 2 * census) return 1
+  return rememberedExactVector({ census, s, h })?.[copies] ?? 0
+}
 
 /** Why the exact chain was or was not run, in words. */
 function exactNote(census: number, effectiveSize: number): string {
@@ -80,7 +90,7 @@ export function establishmentCalc(input: EstablishmentCalcRequest): Establishmen
       inputs,
       copies: { mode: 'fixed', copies },
       diffusion: { probability, log10Probability: finiteOrNull(log10FixationProbability({ ...selection, copies })) },
-      exact: exactAllowed ? { probability: exactFixationProbability({ census, s, h, copies }) } : null,
+      exact: exactAllowed ? { probability: exactFromVector(census, s, h, copies) } : null,
       haldane: haldane && {
         linear: haldane.linear,
         saturating: haldane.saturating,
@@ -104,7 +114,7 @@ export function establishmentCalc(input: EstablishmentCalcRequest): Establishmen
     index: 0,
     releaseYears: [0],
     horizonYears: 1,
-    exactVector: computeExactVector,
+    exactVector: rememberedExactVector,
     exactChainLimit: CALC_EXACT_CENSUS_LIMIT,
   })
   if (release.error !== null) throw new RangeError(release.error)
