@@ -43,15 +43,24 @@ export interface SmtpSettings {
 
 /**
  * Delay before the next attempt after `attempt` failed attempts (1-based):
- * 30 s · 2^(attempt−1), at most one hour.
+ * `firstDelayMs` (30 s) · 2^(attempt−1), at most one hour.
  *
  * @example retryDelayMs(1) // 30000
  * @example retryDelayMs(3) // 120000
  * @example retryDelayMs(20) // 3600000
  */
-export function retryDelayMs(attempt: number): number {
+export function retryDelayMs(attempt: number, firstDelayMs = FIRST_RETRY_DELAY_MS): number {
   const exponent = Math.max(0, Math.min(attempt - 1, 30))
-  return Math.min(FIRST_RETRY_DELAY_MS * 2 ** exponent, MAX_RETRY_DELAY_MS)
+  return Math.min(firstDelayMs * 2 ** exponent, MAX_RETRY_DELAY_MS)
+}
+
+/**
+ * The first retry delay in use: TRIBUTARY_MAIL_FIRST_RETRY_SECONDS (1 … 3600; the fault tests
+ * set 1 so an SMTP outage and recovery fit in seconds), else 30 s.
+ */
+export function firstRetryDelayMs(env: NodeJS.ProcessEnv = process.env): number {
+  const seconds = Number(env.TRIBUTARY_MAIL_FIRST_RETRY_SECONDS)
+  return Number.isInteger(seconds) && seconds >= 1 && seconds <= 3600 ? seconds * 1000 : FIRST_RETRY_DELAY_MS
 }
 
 let dispatcherKick: (() => void) | null = null
@@ -186,7 +195,7 @@ export async function sendQueuedMail(options: { batchSize?: number, maxBatches?:
           `UPDATE outbox_messages SET status = :status, attempts = :attempts, last_error = :message,
                   next_attempt_at = now() + make_interval(secs => :delaySeconds), updated_at = now()
             WHERE id = :id`,
-          { replacements: { id: row.id, status: finalAttempt ? 'failed' : 'queued', attempts, message, delaySeconds: finalAttempt ? 0 : retryDelayMs(attempts) / 1000 } },
+          { replacements: { id: row.id, status: finalAttempt ? 'failed' : 'queued', attempts, message, delaySeconds: finalAttempt ? 0 : retryDelayMs(attempts, firstRetryDelayMs()) / 1000 } },
         )
         if (finalAttempt) result.failed += 1
         else result.retrying += 1
