@@ -141,8 +141,9 @@ async function main() {
 
     console.info(`[restore] database ${describeDatabaseUrl(databaseUrl)} (${database}${database === 'in use' ? ', replaced' : ''})`)
     if (database !== 'empty') await recreateDatabase(databaseUrl, database === 'in use')
-    await run('pg_restore', ['--no-owner', '--no-acl', '--exit-on-error', '--single-transaction', join(archive, manifest.database.file)], {
-      env: { ...process.env, ...libpqEnv(databaseUrl) }, maxBuffer: 16 * 1024 * 1024,
+    const target = libpqEnv(databaseUrl)
+    await run('pg_restore', ['--no-owner', '--no-acl', '--exit-on-error', '--single-transaction', `--dbname=${target.PGDATABASE}`, join(archive, manifest.database.file)], {
+      env: { ...process.env, ...target }, maxBuffer: 16 * 1024 * 1024,
     })
 
     console.info(`[restore] bucket ${settings.bucket} at ${settings.endpoint} (${bucket}${bucket === 'in use' ? ', emptied first' : ''})`)
