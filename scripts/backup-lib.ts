@@ -65,7 +65,7 @@ export async function fileDigest(path: string): Promise<{ sha256: string, sizeBy
  * libpq environment (PGHOST, PGPORT, PGUSER, PGPASSWORD, PGDATABASE) for a postgres:// URL, so
  * pg_dump and pg_restore never show the password on their command line.
  */
-export function libpqEnv(url: string): Record<string, string> {
+export function libpqEnv(url: string): { PGHOST: string, PGPORT: string, PGUSER: string, PGPASSWORD: string, PGDATABASE: string } {
   const parsed = new URL(url)
   return {
     PGHOST: parsed.hostname,

@@ -77,7 +77,7 @@ export async function createSeededDatabase(url: string, objectStoreEnv: Record<s
   } finally {
     await db.sequelize.close()
     for (const [name, value] of Object.entries(saved)) {
-      if (value === undefined) delete process.env[name]
+      if (value === undefined) Reflect.deleteProperty(process.env, name)
       else process.env[name] = value
     }
   }
