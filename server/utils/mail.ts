@@ -43,15 +43,15 @@ export interface SmtpSettings {
 
 /**
  * Delay before the next attempt after `attempt` failed attempts (1-based):
- * `firstDelayMs` (30 s) · 2^(attempt−1), at most one hour.
+ * the first delay (30 s, or TRIBUTARY_MAIL_FIRST_RETRY_SECONDS) · 2^(attempt−1), at most one hour.
  *
  * @example retryDelayMs(1) // 30000
  * @example retryDelayMs(3) // 120000
  * @example retryDelayMs(20) // 3600000
  */
-export function retryDelayMs(attempt: number, firstDelayMs = FIRST_RETRY_DELAY_MS): number {
+export function retryDelayMs(attempt: number): number {
   const exponent = Math.max(0, Math.min(attempt - 1, 30))
-  return Math.min(firstDelayMs * 2 ** exponent, MAX_RETRY_DELAY_MS)
+  return Math.min(firstRetryDelayMs() * 2 ** exponent, MAX_RETRY_DELAY_MS)
 }
 
 /**
@@ -195,7 +195,7 @@ export async function sendQueuedMail(options: { batchSize?: number, maxBatches?:
           `UPDATE outbox_messages SET status = :status, attempts = :attempts, last_error = :message,
                   next_attempt_at = now() + make_interval(secs => :delaySeconds), updated_at = now()
             WHERE id = :id`,
-          { replacements: { id: row.id, status: finalAttempt ? 'failed' : 'queued', attempts, message, delaySeconds: finalAttempt ? 0 : retryDelayMs(attempts, firstRetryDelayMs()) / 1000 } },
+          { replacements: { id: row.id, status: finalAttempt ? 'failed' : 'queued', attempts, message, delaySeconds: finalAttempt ? 0 : retryDelayMs(attempts) / 1000 } },
         )
         if (finalAttempt) result.failed += 1
         else result.retrying += 1
