@@ -43,7 +43,7 @@ export interface SmtpSettings {
 
 /**
  * Delay before the next attempt after `attempt` failed attempts (1-based):
- * 30 s · 2^(attempt−1), at most one hour.
+ * the first delay (30 s, or TRIBUTARY_MAIL_FIRST_RETRY_SECONDS) · 2^(attempt−1), at most one hour.
  *
  * @example retryDelayMs(1) // 30000
  * @example retryDelayMs(3) // 120000
@@ -51,7 +51,16 @@ export interface SmtpSettings {
  */
 export function retryDelayMs(attempt: number): number {
   const exponent = Math.max(0, Math.min(attempt - 1, 30))
-  return Math.min(FIRST_RETRY_DELAY_MS * 2 ** exponent, MAX_RETRY_DELAY_MS)
+  return Math.min(firstRetryDelayMs() * 2 ** exponent, MAX_RETRY_DELAY_MS)
+}
+
+/**
+ * The first retry delay in use: TRIBUTARY_MAIL_FIRST_RETRY_SECONDS (1 … 3600; the fault tests
+ * set 1 so an SMTP outage and recovery fit in seconds), else 30 s.
+ */
+export function firstRetryDelayMs(env: NodeJS.ProcessEnv = process.env): number {
+  const seconds = Number(env.TRIBUTARY_MAIL_FIRST_RETRY_SECONDS)
+  return Number.isInteger(seconds) && seconds >= 1 && seconds <= 3600 ? seconds * 1000 : FIRST_RETRY_DELAY_MS
 }
 
 let dispatcherKick: (() => void) | null = null

@@ -18,6 +18,7 @@ import { ApiClient } from './client'
 import { cloneTemplateDatabase, type TestDatabase } from './db'
 import { sessionPassword } from './env'
 import { freePort } from './ports'
+import { createSeededDatabase, startPrivatePostgres, type PrivatePostgres } from './private-postgres'
 
 const root = fileURLToPath(new URL('../..', import.meta.url))
 export const demoPassword = 'tributary-demo'
@@ -44,7 +45,8 @@ export interface TestServer {
   databaseUrl: string
   /** A direct connection to this file's database (for arranging data and checking writes). */
   db: pg.Pool
-  mail: { messages(): Promise<CapturedMail[]>, clear(): Promise<void> }
+  /** The mail catcher; stop() simulates an SMTP outage, start() brings it back on the same ports. */
+  mail: { messages(): Promise<CapturedMail[]>, clear(): Promise<void>, stop(): Promise<void>, start(): Promise<void> }
   /** A client without a session. */
   anonymous(headers?: Record<string, string>): ApiClient
   /** A client signed in as `email` (demo password by default); throws when sign-in fails. */
@@ -53,6 +55,10 @@ export interface TestServer {
   env: Record<string, string>
   /** Stops and starts the app process again (same database and mail). */
   restart(extraEnv?: Record<string, string>): Promise<void>
+  /** Process id of the app process now running (to show it was not restarted). */
+  pid(): number | undefined
+  /** With `useServer({ pg: 'private' })`: this file's own PostgreSQL cluster, free to stop and start. */
+  postgres?: PrivatePostgres
   /** This file's private object store (s3rver on a free port, files in a temp dir); stop() simulates an outage, start() brings it back with the same files. */
   objectStore: { endpoint: string, bucket: string, directory: string, stop(): Promise<void>, start(): Promise<void> }
   /** The simulation worker started with `useServer({ worker: true })` (undefined otherwise). */
@@ -117,6 +123,47 @@ export async function startTestWorker(databaseUrl: string, extraEnv: Record<stri
   return { child, output: () => output, stop: () => halt('SIGTERM'), kill: () => halt('SIGKILL') }
 }
 
+/** A running app process (the built server, .output/server/index.mjs). */
+export interface AppProcess {
+  child: ChildProcess
+  /** Everything it printed so far. */
+  output(): string
+  /** SIGTERM, SIGKILL after 5 s. */
+  stop(): Promise<void>
+}
+
+/**
+ * Starts the built server with `env` (PORT, NUXT_DATABASE_URL, …) and waits until `url`/api/health
+ * answers 200. useServer() runs its server this way; tests that need a second app (on a restored
+ * database, say) call it directly and stop it themselves.
+ */
+export async function startAppProcess(url: string, env: Record<string, string>): Promise<AppProcess> {
+  let log = ''
+  const child = spawn(process.execPath, ['.output/server/index.mjs'], {
+    cwd: root, env: { ...process.env, ...env }, stdio: ['ignore', 'pipe', 'pipe'],
+  })
+  const collect = (d: Buffer) => {
+    log += d.toString()
+  }
+  child.stdout?.on('data', collect)
+  child.stderr?.on('data', collect)
+  const stop = async () => {
+    if (child.exitCode !== null || child.signalCode !== null) return
+    const exited = new Promise(resolve => child.once('exit', resolve))
+    child.kill('SIGTERM')
+    const timer = setTimeout(() => child.kill('SIGKILL'), 5000)
+    await exited
+    clearTimeout(timer)
+  }
+  try {
+    await waitForHealthy(url, child, () => log)
+  } catch (error) {
+    await stop()
+    throw error
+  }
+  return { child, output: () => log, stop }
+}
+
 async function waitForHealthy(url: string, child: ChildProcess, output: () => string): Promise<void> {
   const deadline = Date.now() + 60_000
   while (Date.now() < deadline) {
@@ -134,43 +181,30 @@ async function waitForHealthy(url: string, child: ChildProcess, output: () => st
  * @param options.env - extra environment of the app process
  * @param options.worker - also start a simulation worker (worker/index.ts) on the same database
  * @param options.workerEnv - extra environment of that worker (see testWorkerEnv)
+ * @param options.pg - 'shared' (default): a copy of the template on the shared PostgreSQL;
+ *   'private': a cluster of this file's own (migrated and seeded; slower to prepare), as
+ *   `server.postgres`, for tests that stop and start the database server
  */
-export function useServer(options: { env?: Record<string, string>, worker?: boolean, workerEnv?: Record<string, string> } = {}): TestServer {
+export function useServer(options: { env?: Record<string, string>, worker?: boolean, workerEnv?: Record<string, string>, pg?: 'shared' | 'private' } = {}): TestServer {
   let database: TestDatabase | undefined
-  let child: ChildProcess | undefined
+  let privatePostgres: PrivatePostgres | undefined
+  let app: AppProcess | undefined
   let catcher: Awaited<ReturnType<typeof startMailCatcher>> | undefined
   let objectStore: ObjectStoreServer | undefined
   let objectStoreDir: string | undefined
-  let log = ''
   const workers: TestWorker[] = []
 
   const handle = {} as TestServer
 
   async function launch(env: Record<string, string>) {
-    log = ''
-    child = spawn(process.execPath, ['.output/server/index.mjs'], {
-      cwd: root, env: { ...process.env, ...env }, stdio: ['ignore', 'pipe', 'pipe'],
-    })
-    child.stdout?.on('data', (d: Buffer) => {
-      log += d.toString()
-    })
-    child.stderr?.on('data', (d: Buffer) => {
-      log += d.toString()
-    })
-    await waitForHealthy(handle.url, child, () => log)
+    app = await startAppProcess(handle.url, env)
   }
 
   async function stop() {
-    if (!child || child.exitCode !== null) return
-    const exited = new Promise(resolve => child!.once('exit', resolve))
-    child.kill('SIGTERM')
-    const timer = setTimeout(() => child?.kill('SIGKILL'), 5000)
-    await exited
-    clearTimeout(timer)
+    await app?.stop()
   }
 
   beforeAll(async () => {
-    database = await cloneTemplateDatabase()
     const [port, smtpPort, mailHttpPort] = [await freePort(), await freePort(), await freePort()]
     catcher = await startMailCatcher({ smtpPort, httpPort: mailHttpPort })
     const objectStorePort = await freePort()
@@ -182,24 +216,38 @@ export function useServer(options: { env?: Record<string, string>, worker?: bool
       stop: async () => { await objectStore?.close() },
       start: async () => { objectStore = await startObjectStore({ port: objectStorePort, directory: storeDirectory }) },
     }
+    const objectStoreEnv = {
+      NUXT_S3_ENDPOINT: objectStore.endpoint, NUXT_S3_BUCKET: objectStore.bucket, NUXT_S3_REGION: 'us-east-1',
+      NUXT_S3_ACCESS_KEY_ID: 'S3RVER', NUXT_S3_SECRET_ACCESS_KEY: 'S3RVER', NUXT_S3_FORCE_PATH_STYLE: 'true',
+    }
+    if (options.pg === 'private') {
+      privatePostgres = await startPrivatePostgres()
+      handle.postgres = privatePostgres
+      handle.databaseUrl = privatePostgres.url('tributary')
+      await createSeededDatabase(handle.databaseUrl, objectStoreEnv)
+    } else {
+      database = await cloneTemplateDatabase()
+      handle.databaseUrl = database.url
+    }
     handle.url = `http://127.0.0.1:${port}`
-    handle.databaseUrl = database.url
-    handle.db = new pg.Pool({ connectionString: database.url, max: 4 })
+    handle.db = new pg.Pool({ connectionString: handle.databaseUrl, max: 4 })
     // Dropping the database at the end terminates connections; an idle one must not crash the run.
     handle.db.on('error', () => {})
     handle.env = {
       PORT: String(port), HOST: '127.0.0.1', NODE_ENV: 'production',
-      NUXT_DATABASE_URL: database.url, NUXT_SESSION_PASSWORD: sessionPassword,
+      NUXT_DATABASE_URL: handle.databaseUrl, NUXT_SESSION_PASSWORD: sessionPassword,
       NUXT_APP_URL: handle.url, NUXT_SMTP_HOST: '127.0.0.1', NUXT_SMTP_PORT: String(smtpPort),
       TRIBUTARY_TEST: '1',
-      NUXT_S3_ENDPOINT: objectStore.endpoint, NUXT_S3_BUCKET: objectStore.bucket, NUXT_S3_REGION: 'us-east-1',
-      NUXT_S3_ACCESS_KEY_ID: 'S3RVER', NUXT_S3_SECRET_ACCESS_KEY: 'S3RVER', NUXT_S3_FORCE_PATH_STYLE: 'true',
+      ...objectStoreEnv,
       ...options.env,
     }
     handle.mail = {
       messages: async () => (await (await fetch(`http://127.0.0.1:${mailHttpPort}/messages`)).json()) as CapturedMail[],
       clear: async () => { await fetch(`http://127.0.0.1:${mailHttpPort}/messages`, { method: 'DELETE' }) },
+      stop: async () => { await catcher?.close() },
+      start: async () => { catcher = await startMailCatcher({ smtpPort, httpPort: mailHttpPort }) },
     }
+    handle.pid = () => app?.child.pid
     handle.anonymous = (headers = {}) => new ApiClient(handle.url, headers)
     handle.signIn = async (email: string, password = demoPassword) => {
       const client = new ApiClient(handle.url)
@@ -214,7 +262,7 @@ export function useServer(options: { env?: Record<string, string>, worker?: bool
     }
     await launch(handle.env)
     handle.startWorker = async (extraEnv = {}) => {
-      const worker = await startTestWorker(database!.url, { ...options.workerEnv, ...extraEnv })
+      const worker = await startTestWorker(handle.databaseUrl, { ...options.workerEnv, ...extraEnv })
       workers.push(worker)
       return worker
     }
@@ -229,6 +277,7 @@ export function useServer(options: { env?: Record<string, string>, worker?: bool
     await objectStore?.close()
     if (objectStoreDir) await rm(objectStoreDir, { recursive: true, force: true })
     await database?.drop()
+    await privatePostgres?.destroy()
   })
 
   return handle

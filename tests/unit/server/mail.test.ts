@@ -5,9 +5,14 @@
 import nodemailer from 'nodemailer'
 import { describe, expect, it } from 'vitest'
 import { startMailCatcher } from '../../../scripts/mail-catcher-lib'
-import { MAX_SEND_ATTEMPTS, retryDelayMs } from '../../../server/utils/mail'
+import { MAX_SEND_ATTEMPTS, firstRetryDelayMs, retryDelayMs } from '../../../server/utils/mail'
 
 describe('retryDelayMs', () => {
+  it('takes its first delay from TRIBUTARY_MAIL_FIRST_RETRY_SECONDS (whole seconds 1 … 3600), else 30 s', () => {
+    expect(firstRetryDelayMs({})).toBe(30_000)
+    expect(firstRetryDelayMs({ TRIBUTARY_MAIL_FIRST_RETRY_SECONDS: '1' })).toBe(1_000)
+    for (const ignored of ['0', '-5', '1.5', '3601', 'soon', '']) expect(firstRetryDelayMs({ TRIBUTARY_MAIL_FIRST_RETRY_SECONDS: ignored })).toBe(30_000)
+  })
   it('doubles from 30 s and stops at one hour', () => {
     expect([1, 2, 3, 4, 5, 6, 7].map(retryDelayMs)).toEqual([30, 60, 120, 240, 480, 960, 1920].map(s => s * 1000))
     expect(retryDelayMs(8)).toBe(3_600_000)
