@@ -1,6 +1,8 @@
 // Tributary — Nuxt configuration. Root-level layout (srcDir '.'), see DEVELOPERS.md.
+import { LARGEST_BODY_REQUEST_BYTES, LARGEST_UPLOAD_REQUEST_BYTES } from './shared/schemas/request-limits'
+
 export default defineNuxtConfig({
-  modules: ['@nuxtjs/tailwindcss', '@pinia/nuxt', 'nuxt-auth-utils', '@nuxt/eslint'],
+  modules: ['@nuxtjs/tailwindcss', '@pinia/nuxt', 'nuxt-auth-utils', 'nuxt-security', '@nuxt/eslint'],
   devtools: { enabled: false },
   app: {
     head: {
@@ -42,6 +44,58 @@ export default defineNuxtConfig({
     // Our JSON error handler for /api/** runs first; Nuxt's own handler (the error page) stays after it.
     'nitro:config'(nitroConfig) {
       nitroConfig.errorHandler = ['~~/server/error', ...[nitroConfig.errorHandler ?? []].flat()]
+    },
+  },
+  // Response security headers (nuxt-security). What depends on the app URL at run time — HSTS and
+  // upgrade-insecure-requests only over https, the tile server in img-src — is added by
+  // server/plugins/security-headers.ts. Cross-site form posts are refused by server/middleware/csrf.ts.
+  security: {
+    headers: {
+      contentSecurityPolicy: {
+        'default-src': ['\'self\''],
+        'base-uri': ['\'none\''],
+        'object-src': ['\'none\''],
+        // Nuxt's own scripts carry the per-response nonce; the chunks they import are trusted through them.
+        'script-src': ['\'self\'', '\'strict-dynamic\'', '\'nonce-{{nonce}}\''],
+        'script-src-attr': ['\'none\''],
+        // Vue renders style="" attributes and Leaflet/geoman and ECharts set inline styles.
+        'style-src': ['\'self\'', '\'unsafe-inline\''],
+        // Leaflet marker icons and ECharts exports are data: URLs; blob: for generated images.
+        'img-src': ['\'self\'', 'data:', 'blob:'],
+        'font-src': ['\'self\'', 'data:'],
+        'connect-src': ['\'self\''],
+        // The brief preview is our own PDF in an iframe; the exact-chain calculation runs in a module worker.
+        'frame-src': ['\'self\''],
+        'worker-src': ['\'self\'', 'blob:'],
+        'manifest-src': ['\'self\''],
+        'media-src': ['\'self\''],
+        'form-action': ['\'self\''],
+        'frame-ancestors': ['\'self\''],
+        'upgrade-insecure-requests': false,
+      },
+      xFrameOptions: 'SAMEORIGIN',
+      xContentTypeOptions: 'nosniff',
+      referrerPolicy: 'same-origin',
+      crossOriginOpenerPolicy: 'same-origin',
+      crossOriginResourcePolicy: 'same-origin',
+      // Off: an external tile server (NUXT_PUBLIC_TILE_URL) does not send CORP headers.
+      crossOriginEmbedderPolicy: false,
+      strictTransportSecurity: false,
+      permissionsPolicy: {
+        'camera': [], 'microphone': [], 'geolocation': [], 'display-capture': [], 'payment': [], 'usb': [],
+        'fullscreen': ['self'],
+      },
+    },
+    // The app has its own limiter on sign-in (server/utils/rate-limit.ts, shared through PostgreSQL).
+    rateLimiter: false,
+    // Off: it refuses ordinary text such as "Ne < 50 after 3 generations" in a narrative.
+    xssValidator: false,
+    // Same-origin app: no cross-origin API clients, so no CORS answers.
+    corsHandler: false,
+    // Ceilings only; every route enforces its own, tighter limit with a clear 413 message.
+    requestSizeLimiter: {
+      maxRequestSizeInBytes: LARGEST_BODY_REQUEST_BYTES,
+      maxUploadFileRequestInBytes: LARGEST_UPLOAD_REQUEST_BYTES,
     },
   },
   eslint: { config: { stylistic: { quotes: 'single', semi: false, commaDangle: 'always-multiline', braceStyle: '1tbs' } } },
