@@ -46,6 +46,7 @@ export default defineNuxtConfig({
       nitroConfig.errorHandler = ['~~/server/error', ...[nitroConfig.errorHandler ?? []].flat()]
     },
   },
+  eslint: { config: { stylistic: { quotes: 'single', semi: false, commaDangle: 'always-multiline', braceStyle: '1tbs' } } },
   // Response security headers (nuxt-security). What depends on the app URL at run time — HSTS and
   // upgrade-insecure-requests only over https, the tile server in img-src — is added by
   // server/plugins/security-headers.ts. Cross-site form posts are refused by server/middleware/csrf.ts.
@@ -98,6 +99,5 @@ export default defineNuxtConfig({
       maxUploadFileRequestInBytes: LARGEST_UPLOAD_REQUEST_BYTES,
     },
   },
-  eslint: { config: { stylistic: { quotes: 'single', semi: false, commaDangle: 'always-multiline', braceStyle: '1tbs' } } },
   tailwindcss: { cssPath: '~/assets/css/tailwind.css', viewer: false },
 })

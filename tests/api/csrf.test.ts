@@ -79,7 +79,7 @@ describe('state-changing routes refuse requests from another site', () => {
     const own = [
       { origin: server.url },
       { referer: `${server.url}/atlas` },
-      { origin: server.url, 'sec-fetch-site': 'same-origin' },
+      { 'origin': server.url, 'sec-fetch-site': 'same-origin' },
     ]
     for (const headers of own) {
       const response = await admin.request('POST', '/api/calc/establishment', {}, headers)
@@ -87,7 +87,7 @@ describe('state-changing routes refuse requests from another site', () => {
       expect(response.status, JSON.stringify(response.body)).toBe(422)
     }
     const client = await server.signIn(demo.viewer)
-    const signOut = await client.request('POST', '/api/auth/logout', {}, { origin: server.url, 'sec-fetch-site': 'same-origin' })
+    const signOut = await client.request('POST', '/api/auth/logout', {}, { 'origin': server.url, 'sec-fetch-site': 'same-origin' })
     expect(signOut.status).toBe(200)
     expect((await client.get('/api/me')).status).toBe(401)
   })
@@ -98,7 +98,7 @@ describe('state-changing routes refuse requests from another site', () => {
   })
 
   it('leaves reading alone: GET from another site is not refused', async () => {
-    const response = await admin.request('GET', '/api/me', undefined, { origin: ELSEWHERE, 'sec-fetch-site': 'cross-site' })
+    const response = await admin.request('GET', '/api/me', undefined, { 'origin': ELSEWHERE, 'sec-fetch-site': 'cross-site' })
     expect(response.status).toBe(200)
   })
 })

@@ -117,9 +117,9 @@ export function idFor(pattern: string, param: string, ids: DemoIds): number {
   const segment = pattern.split('/').findIndex(part => part === `[${param}]`)
   const folder = pattern.split('/')[segment - 1] ?? ''
   const byFolder: Record<string, number> = {
-    users: ids.user, species: ids.species, subpopulations: ids.subpopulation, census: ids.census,
-    'effective-sizes': ids.effectiveSize, genotypes: ids.genotype, attachments: ids.attachment,
-    proposals: ids.proposal, versions: ids.proposalVersion, scenarios: ids.scenario, runs: ids.run,
+    'users': ids.user, 'species': ids.species, 'subpopulations': ids.subpopulation, 'census': ids.census,
+    'effective-sizes': ids.effectiveSize, 'genotypes': ids.genotype, 'attachments': ids.attachment,
+    'proposals': ids.proposal, 'versions': ids.proposalVersion, 'scenarios': ids.scenario, 'runs': ids.run,
   }
   const id = byFolder[folder]
   if (id === undefined) throw new Error(`${pattern}: no demo record for [${param}] after "${folder}/" — teach tests/api/security-support.ts idFor`)
