@@ -13,6 +13,11 @@ export default defineNuxtConfig({
         { name: 'description', content: 'Genetic-rescue planning workspace for wildlife agencies' },
       ],
       link: [{ rel: 'icon', type: 'image/svg+xml', href: '/favicon.svg' }],
+      // Zod in the browser without its compiled fast path, set before any schema is built: zod
+      // probes `new Function` when a schema is created, and the CSP (no 'unsafe-eval') reports
+      // that probe as a violation even though zod falls back quietly. The nonce is added by
+      // nuxt-security. The server keeps the fast path.
+      script: [{ innerHTML: 'globalThis.__zod_globalConfig=Object.assign(globalThis.__zod_globalConfig||{},{jitless:true})', tagPosition: 'head' }],
     },
   },
   css: ['@fontsource-variable/inter/index.css', '~/assets/css/tailwind.css'],
