@@ -10,6 +10,10 @@
  * everywhere), is refused at once: the cookie is cleared and the answer is 401. Role and name
  * come from the row, not the cookie (the cookie is refreshed when they differ).
  *
+ * Sessions last runtimeConfig.session.maxAge (12 hours) from sign-in: the sealed cookie carries
+ * that lifetime and is refused after it ("Your session has expired."). There is no separate idle
+ * timeout. Signing in always starts a new session (`startSession`).
+ *
  * Scope every query with `agencyScope(user)`; a record of another agency must answer 404.
  */
 import { randomBytes } from 'node:crypto'
@@ -60,9 +64,40 @@ function looksLikeSessionUser(value: unknown): value is CurrentUser {
   return Number.isInteger(candidate.id) && Number.isInteger(candidate.agencyId) && Number.isInteger(candidate.sessionVersion)
 }
 
-/** Starts (or replaces) the session of `user` on this response. */
+/** Name of the session cookie (nuxt-auth-utils' default unless runtimeConfig.session.name says otherwise). */
+function sessionCookieName(event: H3Event): string {
+  const session = (useRuntimeConfig(event) as { session?: { name?: unknown } }).session
+  return typeof session?.name === 'string' && session.name ? session.name : 'nuxt-session'
+}
+
+/**
+ * Starts (or replaces) the session of `user` on this response, as a new session: a new id and
+ * creation time, never the one the browser came with (no session fixation). h3 would otherwise
+ * re-read the request's cookie while re-creating the session and keep its id; so the incoming
+ * session cookie is dropped from this request first.
+ */
 export async function startSession(event: H3Event, user: CurrentUser): Promise<void> {
+  await clearUserSession(event)
+  const name = sessionCookieName(event)
+  const incoming = event.node.req.headers.cookie
+  if (incoming) {
+    const others = incoming.split(';').map(part => part.trim()).filter(part => part && !part.startsWith(`${name}=`))
+    if (others.length > 0) event.node.req.headers.cookie = others.join('; ')
+    else delete event.node.req.headers.cookie
+  }
   await replaceUserSession(event, { user, loggedInAt: new Date().toISOString() })
+}
+
+/**
+ * True when the request carried a session cookie that was not accepted (expired — older than
+ * runtimeConfig.session.maxAge — or damaged): h3 then starts a new, empty session during this
+ * request, so its creation time is not before `since`.
+ */
+function sentUnacceptedCookie(event: H3Event, since: number): boolean {
+  const name = sessionCookieName(event)
+  if (!getCookie(event, name)) return false
+  const sessions = event.context.sessions as Record<string, { createdAt?: number }> | undefined
+  return (sessions?.[name]?.createdAt ?? 0) >= since
 }
 
 /**
@@ -73,8 +108,12 @@ export async function requireUser(event: H3Event): Promise<CurrentUser> {
   const memo = event.context.currentUser as CurrentUser | undefined
   if (memo) return memo
 
+  const before = Date.now()
   const session = await getUserSession(event)
-  if (!session.user) throw unauthorized('Please sign in.')
+  if (!session.user) {
+    if (sentUnacceptedCookie(event, before)) throw unauthorized('Your session has expired or is no longer valid. Please sign in again.')
+    throw unauthorized('Please sign in.')
+  }
   if (!looksLikeSessionUser(session.user)) {
     await clearUserSession(event)
     throw unauthorized('Your session has ended. Please sign in again.')

@@ -3,6 +3,7 @@
  * Each returns the error (write `throw notFound('User')`) so TypeScript sees the throw.
  * The JSON body is `{ message }` (server/error.ts formats it).
  */
+import { LARGEST_BODY_REQUEST_BYTES, LARGEST_UPLOAD_REQUEST_BYTES, MULTIPART_OVERHEAD_BYTES } from '#shared/schemas/request-limits'
 import { DB_UNAVAILABLE_MESSAGE, isDbUnavailable } from '../db/connection'
 import type { InputIssue } from './validate'
 
@@ -101,6 +102,9 @@ function fromName(chain: Record<string, unknown>[], name: string): boolean {
  * @example answerForError(notFound('User')).status // 404
  * @example answerForError(new Error('boom')).message // UNEXPECTED_ERROR_MESSAGE
  */
+/** The 413 message for a body over the app-wide ceiling, before any route has read it. */
+const REQUEST_CEILING_MESSAGE = `The request is too large. Files can be at most ${formatBytes(LARGEST_UPLOAD_REQUEST_BYTES - MULTIPART_OVERHEAD_BYTES)} (each kind of file has its own, lower limit), other requests at most ${formatBytes(LARGEST_BODY_REQUEST_BYTES)}.`
+
 export function answerForError(error: unknown): ErrorAnswer {
   const chain = errorChain(error)
   const answer = (status: number, message: string, unexpected = false): ErrorAnswer =>
@@ -120,6 +124,8 @@ export function answerForError(error: unknown): ErrorAnswer {
   const data = (top.data ?? {}) as { issues?: unknown, retryAfterSeconds?: unknown }
   let message = typeof top.message === 'string' && top.message.trim() !== '' ? top.message : (STATUS_TEXT[status] ?? 'Error')
   if (status === 404 && /^Page not found/i.test(message)) message = 'There is no such API route.'
+  // nuxt-security's size ceiling (nuxt.config.ts) answers with the bare status text.
+  if (status === 413 && message === STATUS_TEXT[413]) message = REQUEST_CEILING_MESSAGE
   const result = answer(status, message, status >= 500 && status !== 503)
   if (result.unexpected) result.message = UNEXPECTED_ERROR_MESSAGE
   if (Array.isArray(data.issues)) result.issues = data.issues as InputIssue[]

@@ -22,9 +22,7 @@ import { createHash } from 'node:crypto'
 import type { IncomingHttpHeaders } from 'node:http'
 import { Transform, type Readable, type TransformCallback } from 'node:stream'
 import busboy from 'busboy'
-
-/** Multipart framing and the text fields may add this much to the file's own size. */
-export const MULTIPART_OVERHEAD_BYTES = 64 * 1024
+import { MULTIPART_OVERHEAD_BYTES } from '#shared/schemas/request-limits'
 
 /** Bytes of the file start kept for type checks. */
 const HEAD_BYTES = 4096

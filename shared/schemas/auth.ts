@@ -4,9 +4,11 @@
  * it through `readBodyWith`, the form with the same object.
  *
  * Password rule (`passwordProblem`): at least 10 characters, at most 200, not one of the
- * well-known weak passwords in ./weak-passwords.ts, and not the account's own e-mail address or
- * its local part (with or without trailing digits and symbols). The last check needs the
- * address, so routes call `passwordProblem(password, email)` after the schema has passed.
+ * well-known weak passwords in ./weak-passwords.ts, not containing the application's name, and
+ * not containing the account's own e-mail address or its local part. The last check needs the
+ * address, so routes call `passwordProblem(password, email)` after the schema has passed. The
+ * server adds the longer list of common and leaked passwords (server/security/common-passwords.ts),
+ * too large to ship to the browser.
  */
 import { z } from 'zod'
 import { WEAK_PASSWORDS } from './weak-passwords'
@@ -26,6 +28,27 @@ export const EmailSchema = z.string({ error: 'Enter an e-mail address.' })
   .max(EMAIL_MAX_LENGTH, `An e-mail address has at most ${EMAIL_MAX_LENGTH} characters.`)
   .pipe(z.email('Enter a valid e-mail address, like name@agency.example.'))
 
+/** The application's name, refused inside passwords (it is the first word anyone would try). */
+const PRODUCT_NAME = 'tributary'
+
+/** Letters and digits only ('Jane.Doe-2' → 'janedoe2'), so separators do not hide a name. */
+function lettersOnly(text: string): string {
+  return text.toLowerCase().replace(/[^\p{L}\p{N}]+/gu, '')
+}
+
+/**
+ * True when the password contains the address, or its local part (also with its dots, dashes
+ * and underscores left out). Local parts shorter than 4 characters are too common to refuse.
+ */
+function containsOwnAddress(loweredPassword: string, email: string): boolean {
+  const address = email.trim().toLowerCase()
+  const localPart = address.split('@')[0] ?? ''
+  if (loweredPassword.includes(address)) return true
+  if (localPart.length < 4) return false
+  const compactLocal = lettersOnly(localPart)
+  return loweredPassword.includes(localPart) || (compactLocal.length >= 4 && lettersOnly(loweredPassword).includes(compactLocal))
+}
+
 /**
  * Why a new password is refused, or null when it is acceptable.
  *
@@ -33,7 +56,8 @@ export const EmailSchema = z.string({ error: 'Enter an e-mail address.' })
  * @param email - the account's address, when known; its local part is refused too
  * @returns a sentence for the person choosing the password, or null
  * @example passwordProblem('qwertyuiop') // 'This password is too common …'
- * @example passwordProblem('jane.doe2024', 'jane.doe@agency.example') // 'Do not use your e-mail address …'
+ * @example passwordProblem('my-jane.doe-key', 'jane.doe@agency.example') // 'Do not use your e-mail address …'
+ * @example passwordProblem('TributaryRocks!') // 'Do not use the name of this application …'
  * @example passwordProblem('moss under cedar bark') // null
  */
 export function passwordProblem(password: string, email?: string): string | null {
@@ -42,13 +66,11 @@ export function passwordProblem(password: string, email?: string): string | null
   const lowered = password.toLowerCase()
   if (WEAK_PASSWORDS.has(lowered)) return 'This password is too common and easy to guess. Choose another one, for example a few unrelated words.'
   if (new Set(lowered).size <= 2) return 'This password repeats the same characters. Choose another one.'
-  if (email) {
-    const address = email.trim().toLowerCase()
-    const localPart = address.split('@')[0] ?? ''
-    const stripped = lowered.replace(/[\d\W_]+$/u, '')
-    if (lowered === address || (localPart.length > 0 && (lowered === localPart || stripped === localPart))) {
-      return 'Do not use your e-mail address as your password. Choose another one.'
-    }
+  if (email && containsOwnAddress(lowered, email)) {
+    return 'Do not use your e-mail address, or the name before its @, in your password. Choose another one.'
+  }
+  if (lettersOnly(lowered).includes(PRODUCT_NAME)) {
+    return `Do not use the name of this application (${PRODUCT_NAME}) in your password. Choose another one.`
   }
   return null
 }

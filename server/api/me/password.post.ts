@@ -4,13 +4,13 @@
  * 429 after too many), on `newPassword` when it breaks the rules. Bumps `session_version`: every
  * other session ends, and this one is re-issued so it stays signed in.
  */
-import { ChangePasswordSchema, passwordProblem } from '#shared/schemas/auth'
+import { ChangePasswordSchema } from '#shared/schemas/auth'
 import type { ApiMessage } from '#shared/types/api'
 
 export default defineEventHandler(async (event): Promise<ApiMessage> => {
   const current = await requireUser(event)
   const { currentPassword, newPassword } = await readBodyWith(event, ChangePasswordSchema, { maxBytes: 16 * 1024 })
-  const problem = passwordProblem(newPassword, current.email)
+  const problem = await newPasswordProblem(newPassword, current.email)
   if (problem) throw unprocessable(`newPassword: ${problem}`, [{ path: 'newPassword', message: problem }])
   const keys = signInKeys(current.email, clientAddress(event))
   const { sequelize, models } = await useDb()

@@ -43,6 +43,21 @@ describe('passwordProblem', () => {
     expect(passwordProblem('jane.doe-smith2024!', 'someone.else@agency.example')).toBeNull()
   })
 
+  it('refuses passwords that contain the local part of the address, also without its separators', () => {
+    const email = 'jane.doe@agency.example'
+    expect(passwordProblem('my-jane.doe-river', email)).toMatch(/e-mail address/)
+    expect(passwordProblem('river JaneDoe lantern', email)).toMatch(/e-mail address/)
+    expect(passwordProblem('river jane lantern', email)).toBeNull()
+    // Local parts shorter than 4 characters are too common to refuse inside passwords.
+    expect(passwordProblem('canada geese overhead', 'ada@agency.example')).toBeNull()
+  })
+
+  it('refuses passwords containing the application\'s name', () => {
+    for (const named of ['MyTributaryLogin', 'tri-bu-tary rocks 9', 'river tributary lantern']) {
+      expect(passwordProblem(named), named).toMatch(/name of this application/)
+    }
+  })
+
   it('feeds NewPasswordSchema (the e-mail rule needs the route)', () => {
     expect(NewPasswordSchema.safeParse('password123').success).toBe(false)
     expect(NewPasswordSchema.safeParse('moss under cedar bark').success).toBe(true)

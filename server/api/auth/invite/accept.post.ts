@@ -3,7 +3,7 @@
  * the session cookie. One-time: 404 unknown link, 410 used or expired; 422 when the password
  * breaks the rules. Sets name and password, activates the account and signs the person in.
  */
-import { AcceptInviteSchema, passwordProblem } from '#shared/schemas/auth'
+import { AcceptInviteSchema } from '#shared/schemas/auth'
 import type { SignInResponse } from '#shared/types/api'
 
 export default defineEventHandler(async (event): Promise<SignInResponse> => {
@@ -15,7 +15,7 @@ export default defineEventHandler(async (event): Promise<SignInResponse> => {
     const row = await consumeUserToken(t, token, 'invite', now)
     const user = await models.User.findByPk(row.userId, { lock: t.LOCK.UPDATE, transaction: t })
     if (!user || user.passwordHash !== null) throw tokenRefusal('used', 'invite')
-    const problem = passwordProblem(password, user.email)
+    const problem = await newPasswordProblem(password, user.email)
     if (problem) throw unprocessable(`password: ${problem}`, [{ path: 'password', message: problem }])
     const before = adminUserDto(user)
     user.name = name

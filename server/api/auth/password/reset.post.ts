@@ -4,7 +4,7 @@
  * breaks the rules (issues on `password`). Sets the password and bumps `session_version`, so
  * every existing session ends; the person signs in again with the new password.
  */
-import { passwordProblem, ResetPasswordSchema } from '#shared/schemas/auth'
+import { ResetPasswordSchema } from '#shared/schemas/auth'
 import type { ApiMessage } from '#shared/types/api'
 
 export default defineEventHandler(async (event): Promise<ApiMessage> => {
@@ -16,7 +16,7 @@ export default defineEventHandler(async (event): Promise<ApiMessage> => {
     const row = await consumeUserToken(t, token, 'reset', now)
     const user = await models.User.findByPk(row.userId, { lock: t.LOCK.UPDATE, transaction: t })
     if (!user || !user.active || user.passwordHash === null) throw tokenRefusal('used', 'reset')
-    const problem = passwordProblem(password, user.email)
+    const problem = await newPasswordProblem(password, user.email)
     if (problem) throw unprocessable(`password: ${problem}`, [{ path: 'password', message: problem }])
     user.passwordHash = await hashPassword(password)
     user.sessionVersion += 1

@@ -14,9 +14,7 @@ import { z } from 'zod'
 import type { ImportResponse } from '#shared/atlas/types'
 import { ATLAS_WRITERS, ownSpecies } from '../../../../atlas/records'
 import { importRecords, readImportFile } from '../../../../atlas/import'
-
-/** Largest import body (the file's text inside JSON). */
-const MAX_IMPORT_BYTES = 5 * 1024 * 1024
+import { SUBPOPULATION_IMPORT_MAX_BYTES as MAX_IMPORT_BYTES } from '#shared/schemas/request-limits'
 
 const BodySchema = z.strictObject({
   format: z.enum(['geojson', 'csv'], { error: 'Choose the file format: "geojson" or "csv".' }),
