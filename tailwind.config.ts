@@ -16,6 +16,9 @@ export default <Partial<Config>>{
     extend: {
       fontFamily: { sans: ['"Inter Variable"', 'Inter', ...defaultTheme.fontFamily.sans] },
       colors: {
+        // Slate 500 a shade darker than Tailwind's (#64748b): small secondary text on the tinted
+        // surfaces (slate-100, ochre-50, river-50) then keeps 4.5:1 contrast (WCAG AA).
+        slate: { 500: '#5a6a80' },
         river: {
           50: '#eefaf9', 100: '#d3f1ef', 200: '#a9e2df', 300: '#74cbc8', 400: '#44aeac',
           500: '#2a9291', 600: '#1f7576', 700: '#1b5e60', 800: '#194c4e', 900: '#173f42', 950: '#0a2628',

@@ -15,6 +15,19 @@ export const ATLAS_STATUS_COLOURS: Readonly<Record<StatusKey, string>> = {
   unknown: '#94a3b8',
 }
 
+/**
+ * The status colour for words on white: the token where it already reaches 4.5:1 (WCAG AA),
+ * else the same hue darkened until it does (stable, watch); 'unknown' is slate-500.
+ */
+export const ATLAS_STATUS_TEXT_COLOURS: Readonly<Record<StatusKey, string>> = {
+  critical: '#6b2d5c',
+  declining: '#b5562a',
+  watch: '#8d711b',
+  stable: '#398261',
+  connected: '#1d4e89',
+  unknown: '#5a6a80',
+}
+
 /** Marker radius (px) of an Ne band; records without one get the smallest. */
 export function atlasBandRadius(band: NeBandKey | null): number {
   return NE_BANDS.find(item => item.key === band)?.radius ?? 5
