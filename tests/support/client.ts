@@ -5,6 +5,26 @@
  */
 export interface ApiResponse<T = any> { status: number, body: T, headers: Headers }
 
+/** True for "the kept-alive connection was closed under us" (undici), not for an answer. */
+function closedIdleConnection(error: unknown): boolean {
+  const cause = (error as { cause?: { code?: unknown } } | undefined)?.cause
+  return error instanceof TypeError && (cause?.code === 'UND_ERR_SOCKET' || cause?.code === 'ECONNRESET')
+}
+
+/**
+ * fetch, sent once more when the server had already closed the idle kept-alive connection the
+ * request went out on (a race when the test process was busy computing past the connection's
+ * idle time): the server never read that request, so sending it again cannot repeat a write.
+ */
+async function fetchOnFreshSocketIfClosed(url: URL, init: RequestInit): Promise<Response> {
+  try {
+    return await fetch(url, init)
+  } catch (error) {
+    if (!closedIdleConnection(error) || init.body instanceof ReadableStream) throw error
+    return await fetch(url, init)
+  }
+}
+
 export class ApiClient {
   private cookies = new Map<string, string>()
   constructor(readonly baseUrl: string, readonly defaultHeaders: Record<string, string> = {}) {}
@@ -21,7 +41,7 @@ export class ApiClient {
       }
     }
     if (this.cookies.size) allHeaders.cookie = [...this.cookies].map(([k, v]) => `${k}=${v}`).join('; ')
-    const response = await fetch(new URL(path, this.baseUrl), init)
+    const response = await fetchOnFreshSocketIfClosed(new URL(path, this.baseUrl), init)
     for (const line of response.headers.getSetCookie()) {
       const [pair] = line.split(';')
       const index = pair!.indexOf('=')
