@@ -2,7 +2,8 @@
  * Fault: the object store is down when someone uploads. An attachment and a genotype table are
  * each refused with a 503 that says nothing was saved; afterwards there is no database record,
  * no audit event and no object (whole or partial) in the bucket. With the store back, the very
- * same uploads succeed and their objects hold exactly the bytes sent.
+ * same uploads succeed and their objects hold exactly the bytes sent. A store that goes away in
+ * the middle of a large (multipart) upload leaves nothing behind either.
  */
 import { createHash } from 'node:crypto'
 import { GetObjectCommand, S3Client } from '@aws-sdk/client-s3'
@@ -88,4 +89,69 @@ describe('object storage down during uploads', () => {
     expect(attachmentRow.checksum_sha256).toBe(sha256(PDF))
     expect(sha256(await storedBytes(datasetRow.storage_key))).toBe(sha256(new TextEncoder().encode(ALDER_HOLLOW_CSV)))
   })
+})
+
+/**
+ * POSTs a 12 MB text attachment as a stream; after the first 7 MB (past the 5 MB first part of the
+ * multipart upload) `midway` runs before the rest is sent.
+ */
+async function uploadWithPause(path: string, midway: () => Promise<void>): Promise<{ status: number, body: { message?: string } }> {
+  const boundary = '----tributary-fault-boundary'
+  const encoder = new TextEncoder()
+  const chunk = encoder.encode('census note, repeated to make a large file\n'.repeat(1490)) // about 64 KB
+  const total = 12 * 1024 * 1024
+  const pauseAt = 7 * 1024 * 1024
+  let sent = 0
+  let paused = false
+  let stage: 'head' | 'body' | 'tail' | 'done' = 'head'
+  const body = new ReadableStream<Uint8Array>({
+    async pull(controller) {
+      if (stage === 'head') {
+        controller.enqueue(encoder.encode(`--${boundary}\r\nContent-Disposition: form-data; name="file"; filename="field-notes.txt"\r\nContent-Type: text/plain\r\n\r\n`))
+        stage = 'body'
+      } else if (stage === 'body') {
+        if (!paused && sent >= pauseAt) {
+          paused = true
+          await midway()
+        }
+        controller.enqueue(chunk)
+        sent += chunk.length
+        if (sent >= total) stage = 'tail'
+      } else if (stage === 'tail') {
+        controller.enqueue(encoder.encode(`\r\n--${boundary}--\r\n`))
+        stage = 'done'
+      } else {
+        controller.close()
+      }
+    },
+  })
+  const response = await fetch(new URL(path, server.url), {
+    method: 'POST', body, duplex: 'half',
+    headers: { 'content-type': `multipart/form-data; boundary=${boundary}`, 'cookie': biologist.cookieHeader },
+  } as RequestInit & { duplex: 'half' })
+  const text = await response.text()
+  return { status: response.status, body: JSON.parse(text) as { message?: string } }
+}
+
+describe('object storage lost in the middle of a large upload', () => {
+  it('answers 503, records nothing and leaves no object', async () => {
+    const path = `/api/subpopulations/${subpopulations['Cinderbrook Cove']}/attachments`
+    const footprintBefore = await uploadFootprint()
+    const keysBefore = (await storedKeys(server)).sort()
+    let answer: { status: number, body: { message?: string } }
+    try {
+      answer = await uploadWithPause(path, () => server.objectStore.stop())
+    } finally {
+      await server.objectStore.start()
+    }
+    expect(answer.status, JSON.stringify(answer.body)).toBe(503)
+    expect(answer.body.message).toMatch(/^File storage cannot be reached just now, so nothing was saved/)
+    expect(await uploadFootprint()).toEqual(footprintBefore)
+    expect((await storedKeys(server)).sort()).toEqual(keysBefore)
+
+    // And the same large upload goes through with the store up.
+    const again = await uploadWithPause(path, async () => {})
+    expect(again.status, JSON.stringify(again.body)).toBe(201)
+    expect((await uploadFootprint()).attachments).toBe(footprintBefore.attachments + 1)
+  }, 60_000)
 })

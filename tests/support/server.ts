@@ -166,15 +166,19 @@ export async function startAppProcess(url: string, env: Record<string, string>):
 
 async function waitForHealthy(url: string, child: ChildProcess, output: () => string): Promise<void> {
   const deadline = Date.now() + 60_000
+  let last = 'no answer yet'
   while (Date.now() < deadline) {
     if (child.exitCode !== null) throw new Error(`The server exited early:\n${output()}`)
     try {
-      const response = await fetch(new URL('/api/health', url))
+      const response = await fetch(new URL('/api/health', url), { signal: AbortSignal.timeout(10_000) })
       if (response.ok) return
-    } catch { /* not listening yet */ }
+      last = `${response.status} ${await response.text()}`
+    } catch (error) {
+      last = String(error) // not listening yet
+    }
     await new Promise(resolve => setTimeout(resolve, 100))
   }
-  throw new Error(`The server did not become healthy in time:\n${output()}`)
+  throw new Error(`The server did not become healthy in time (last: ${last}):\n${output()}`)
 }
 
 /**
