@@ -1,10 +1,11 @@
 /**
  * axe-core on the main pages, in a real browser (Debian's Chromium) against the built server, as
  * each role sees them: the public pages (sign-in and its error state, forgotten password, the
- * e-mailed reset and invitation pages and a used link, brief verification before and after a
- * check), the Atlas (map and list, a selected subpopulation), a subpopulation record with its
- * stacked sections and the census dialog, the genetic profile, proposals list, new proposal, the
- * proposal workspace (results, explanation) and compare page, the Reviews inbox and a review with
+ * e-mailed reset and invitation pages and an unknown link, brief verification before and after a
+ * check), the Atlas (map and list, a selected subpopulation, its distances and import dialogs), a
+ * subpopulation record with its stacked sections and the census and census-import dialogs, the
+ * genetic profile, proposals list, new proposal, the proposal workspace (results, a method
+ * explanation open) and compare page, an approved proposal, the Reviews inbox and a review with
  * its decision form, the audit log and the administration pages (users, invite dialog, outbox
  * with an opened message). No page may have a "serious" or "critical" axe finding; a failure
  * lists each rule with its elements and axe's help. One browser and one signed-in page per role.
@@ -122,6 +123,13 @@ describe('the Atlas and subpopulation records (biologist)', () => {
     await page.getByRole('list', { name: 'Subpopulations' }).getByRole('button', { name: /Quillmoss Ridge/ }).click()
     await page.getByRole('region', { name: 'Quillmoss Ridge' }).waitFor()
     await expectAccessible(page, 'the Atlas with a subpopulation card')
+    for (const [button, dialog] of [['Distances', 'Distances'], ['Import', 'Import subpopulations']] as const) {
+      await page.getByRole('toolbar', { name: 'Map tools' }).getByRole('button', { name: button, exact: true }).click()
+      await page.getByRole('dialog', { name: dialog }).waitFor()
+      await expectAccessible(page, `the Atlas ${dialog} dialog`)
+      await page.keyboard.press('Escape')
+      await page.getByRole('dialog').waitFor({ state: 'detached' })
+    }
   })
 
   it('a subpopulation record with all its sections, and the census dialog', async () => {
@@ -131,6 +139,11 @@ describe('the Atlas and subpopulation records (biologist)', () => {
     await page.getByRole('button', { name: 'Add a year' }).click()
     await page.getByRole('dialog', { name: 'Add a census year' }).waitFor()
     await expectAccessible(page, 'the census dialog')
+    await page.keyboard.press('Escape')
+    await page.getByRole('dialog').waitFor({ state: 'detached' })
+    await page.getByRole('button', { name: 'Import CSV' }).click()
+    await page.getByRole('dialog', { name: 'Import census years into Brackenveil Knob' }).waitFor()
+    await expectAccessible(page, 'the census import dialog')
     await page.keyboard.press('Escape')
   })
 
@@ -159,6 +172,10 @@ describe('proposals (biologist)', () => {
     await open(page, `/proposals/${records.draft}`, /.+/)
     await page.getByTestId('establishment-figure').first().and(page.locator('[data-value]')).waitFor()
     await expectAccessible(page, 'the proposal workspace')
+    await page.locator('[data-explain="establishment.haldane"]').first().click()
+    await page.getByRole('region', { name: '"2hs" rule of thumb' }).waitFor()
+    await expectAccessible(page, 'the workspace with a method explanation open')
+    await page.keyboard.press('Escape')
     await page.goto(`${server.url}/proposals/${records.draft}/compare`)
     await page.getByTestId('compare-table').waitFor()
     await hydrated(page)

@@ -52,7 +52,7 @@ async function expectFocusTrappedThenEscape(page: Page, dialog: Locator, opener:
 }
 
 let submittedId: number
-/** One signed-in biologist page for the Atlas, record and proposal forms. */
+/** One signed-in biologist page for the record and proposal forms. */
 let biologistPage: Page
 
 beforeAll(async () => {
@@ -80,9 +80,9 @@ describe('keyboard only', () => {
   })
 
   it('creates a subpopulation: New → Place a point, arrow keys move the map, Enter places it, the form is typed', async () => {
-    const page = biologistPage
-    await open(page, '/')
-    await page.locator('.atlas-map[data-ready="true"][data-drawn="10"]').waitFor({ timeout: 20_000 })
+    const page = await browser.signedInPage(server.url, demo.biologist)
+    const map = page.locator('.atlas-map')
+    await expect.poll(async () => `${await map.getAttribute('data-ready')} ${await map.getAttribute('data-drawn')}`, { timeout: 45_000 }).toBe('true 10')
     const newButton = page.getByRole('button', { name: 'New subpopulation' })
     await tabTo(page, newButton)
     await page.keyboard.press('Enter')
@@ -91,8 +91,8 @@ describe('keyboard only', () => {
     expect(await hasFocus(page.getByRole('menuitem', { name: 'Place a point on the map' }))).toBe(true)
     await page.keyboard.press('Enter')
 
-    const map = page.getByRole('application')
-    await expect.poll(() => hasFocus(map)).toBe(true)
+    const application = page.getByRole('application')
+    await expect.poll(() => hasFocus(application)).toBe(true)
     await expectFocusRing(page)
     await page.getByTestId('map-centre-cross').waitFor()
     for (const key of ['ArrowLeft', 'ArrowUp']) {
