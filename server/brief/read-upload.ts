@@ -11,16 +11,14 @@ import type { IncomingHttpHeaders } from 'node:http'
 import type { Readable } from 'node:stream'
 import busboy from 'busboy'
 import { createError } from 'h3'
+import { formatBytes } from '../utils/http-errors'
 
 /** Multipart framing and small text fields on top of the file. */
 const FRAMING_BYTES = 64 * 1024
 
-function megabytes(bytes: number): string {
-  return `${Math.round((bytes / (1024 * 1024)) * 10) / 10} MB`
-}
-
 function tooLarge(maxBytes: number) {
-  return createError({ status: 413, statusText: 'Payload Too Large', message: `The file is too large. The limit is ${megabytes(maxBytes)}.` })
+  // formatBytes: a 64 KB limit reads "64 KB", not "0.1 MB"
+  return createError({ status: 413, statusText: 'Payload Too Large', message: `The file is too large. The limit is ${formatBytes(maxBytes)}.` })
 }
 
 function unprocessable(message: string) {

@@ -164,6 +164,8 @@ function clientConfig(settings: ObjectStoreSettings, endpoint: string): S3Client
 export function contentDisposition(fileName: string): string {
   // eslint-disable-next-line no-control-regex -- control characters are exactly what must go
   const cleaned = fileName.replace(/[\u0000-\u001F\u007F"\\]/g, '_')
+    // encodeURIComponent throws on half a surrogate pair; such a name must still download
+    .replace(/[\uD800-\uDBFF](?![\uDC00-\uDFFF])|(?<![\uD800-\uDBFF])[\uDC00-\uDFFF]/g, '\uFFFD')
   const ascii = cleaned.replace(/[^\u0020-\u007E]/g, '_')
   const encoded = encodeURIComponent(cleaned).replace(/['()*]/g, char => `%${char.charCodeAt(0).toString(16).toUpperCase()}`)
   return `attachment; filename="${ascii}"; filename*=UTF-8''${encoded}`

@@ -97,20 +97,41 @@ function unprocessableFile(message: string): HttpError {
 const WINDOWS_RESERVED = /^(con|prn|aux|nul|com\d|lpt\d)$/i
 
 /**
+ * Invisible characters that change how a name reads: bidirectional overrides and isolates
+ * ('\u202Egpj.exe' shows as 'exe.jpg'), marks, zero-width spaces and joiners, byte-order marks.
+ */
+const INVISIBLE_FORMATTING = /[\u00AD\u061C\u180E\u200B-\u200F\u202A-\u202E\u2060-\u2069\uFEFF]/g
+
+/** The first `max` characters of `text`, never cutting a character in two (counted in UTF-16 units, like String.length). */
+function leadingUnits(text: string, max: number): string {
+  let kept = ''
+  for (const character of text) {
+    if (kept.length + character.length > max) break
+    kept += character
+  }
+  return kept
+}
+
+/**
  * A file name safe to show, store and send back: the last path part only (both / and \),
- * no control, quote or reserved characters, no leading dots or spaces, at most 120 characters
- * with the ending kept. Unicode is normalised (NFC). Empty results become `fallback`.
+ * no control, quote, reserved or invisible formatting characters, no leading dots or spaces,
+ * at most 120 characters with the ending kept (never cutting a character in two). Unicode is
+ * normalised (NFC). Empty results become `fallback`.
  *
  * @example sanitizeFileName('../../etc/passwd')          // 'passwd'
  * @example sanitizeFileName('C:\\Users\\a\\permit.pdf')  // 'permit.pdf'
  * @example sanitizeFileName('..')                        // 'file'
  * @example sanitizeFileName('rapport\u0000.pdf')         // 'rapport.pdf'
+ * @example sanitizeFileName('\u202Egpj.exe')            // 'gpj.exe' (no longer shown as "exe.jpg")
  */
 export function sanitizeFileName(name: string, fallback = 'file'): string {
   const lastPart = name.normalize('NFC').split(/[/\\]/).pop() ?? ''
   let cleaned = lastPart
     // eslint-disable-next-line no-control-regex -- control characters are exactly what must go
     .replace(/[\u0000-\u001F\u007F-\u009F]/g, '')
+    .replace(INVISIBLE_FORMATTING, '')
+    // a half of a surrogate pair on its own is not a character (the database would store U+FFFD)
+    .replace(/[\uD800-\uDBFF](?![\uDC00-\uDFFF])|(?<![\uD800-\uDBFF])[\uDC00-\uDFFF]/g, '')
     .replace(/[<>:"|?*]/g, '_')
     .replace(/\s+/g, ' ')
     .replace(/^[\s.]+/, '')
@@ -121,7 +142,7 @@ export function sanitizeFileName(name: string, fallback = 'file'): string {
   if (WINDOWS_RESERVED.test(stem)) cleaned = `_${cleaned}`
   if (cleaned.length > 120) {
     const keptEnding = ending.length <= 12 ? ending : ''
-    cleaned = `${cleaned.slice(0, 120 - keptEnding.length).trimEnd()}${keptEnding}`
+    cleaned = `${leadingUnits(cleaned, 120 - keptEnding.length).trimEnd()}${keptEnding}`
   }
   return cleaned === '' ? fallback : cleaned
 }

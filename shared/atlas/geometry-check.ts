@@ -1,6 +1,8 @@
 /**
  * Checks a subpopulation boundary before it is saved, the same way in the browser (drawing,
  * import preview) and on the server (the zod schema in shared/schemas/subpopulation.ts):
+ *   0. coordinates nested no deeper than the type needs (a hostile file nested thousands of
+ *      levels deep would otherwise exhaust the stack in the structure check);
  *   1. GeoJSON structure and positions (@placemarkio/check-geojson: closed rings, four or more
  *      positions per ring, numeric positions, …);
  *   2. the type: Polygon, MultiPolygon or Point;
@@ -46,6 +48,24 @@ export function formatArea(km2: number): string {
 
 function isRecord(value: unknown): value is Record<string, unknown> {
   return typeof value === 'object' && value !== null && !Array.isArray(value)
+}
+
+/** Array depth of `coordinates` for each boundary type: a position is 1 deep, a ring 2, a polygon 3, a multipolygon 4. */
+const COORDINATE_DEPTH: Record<(typeof BOUNDARY_TYPES)[number], number> = { Point: 1, Polygon: 3, MultiPolygon: 4 }
+
+/**
+ * True when lists inside `value` are nested deeper than `limit` (walked without recursion, so
+ * a file nested thousands of levels deep cannot exhaust the stack here or in the later checks).
+ */
+function nestedDeeperThan(value: unknown, limit: number): boolean {
+  const pending: Array<[unknown, number]> = [[value, 0]]
+  while (pending.length > 0) {
+    const [node, depth] = pending.pop()!
+    if (!Array.isArray(node)) continue
+    if (depth + 1 > limit) return true
+    for (const child of node) if (Array.isArray(child)) pending.push([child, depth + 1])
+  }
+  return false
 }
 
 function* positionsOf(geometry: SubpopulationGeometry): Generator<Position> {
@@ -96,6 +116,10 @@ export function boundaryProblems(geometry: unknown): string[] {
   }
   if (!(BOUNDARY_TYPES as readonly string[]).includes(geometry.type)) {
     return [`A boundary must be a Polygon, MultiPolygon or Point, not a ${geometry.type}.`]
+  }
+  const type = geometry.type as (typeof BOUNDARY_TYPES)[number]
+  if (nestedDeeperThan(geometry.coordinates, COORDINATE_DEPTH[type])) {
+    return [`The coordinates of a ${type} are lists nested at most ${COORDINATE_DEPTH[type]} deep; these are nested deeper.`]
   }
   const structure = getIssues(JSON.stringify(geometry)).map(issue => issue.message)
   if (structure.length) return [...new Set(structure)].map(message => `GeoJSON structure: ${message}`)

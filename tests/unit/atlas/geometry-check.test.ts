@@ -34,6 +34,14 @@ describe('boundaryProblems', () => {
     expect(text[0]).toMatch(/^GeoJSON structure: /)
   })
 
+  it('refuses coordinates nested deeper than the type needs, even thousands deep, without exhausting the stack', () => {
+    const deep = JSON.parse(`${'['.repeat(20_000)}${']'.repeat(20_000)}`) as unknown
+    expect(boundaryProblems({ type: 'Polygon', coordinates: deep })).toEqual(['The coordinates of a Polygon are lists nested at most 3 deep; these are nested deeper.'])
+    expect(boundaryProblems({ type: 'MultiPolygon', coordinates: deep })).toHaveLength(1)
+    expect(boundaryProblems({ type: 'Point', coordinates: [[-83, 35]] })).toEqual(['The coordinates of a Point are lists nested at most 1 deep; these are nested deeper.'])
+    expect(boundaryProblems({ type: 'Polygon', coordinates: [[[[-83, 35]]]] })[0]).toMatch(/nested at most 3 deep/)
+  })
+
   it('refuses positions off the globe and hints at swapped coordinates', () => {
     expect(boundaryProblems({ type: 'Point', coordinates: [35.6, -183.5] })[0]).toMatch(/latitude -183\.5; latitudes run from -90 to 90 \(check that longitude comes first/)
     expect(boundaryProblems({ type: 'Point', coordinates: [200, 10] })[0]).toMatch(/longitude 200/)

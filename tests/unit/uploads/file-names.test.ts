@@ -26,6 +26,11 @@ describe('sanitizeFileName', () => {
     ['nul', '_nul'],
     ['Ökologie  Bericht.pdf', 'Ökologie Bericht.pdf'],
     ['e\u0301cole.txt', 'école.txt'],
+    // bidirectional overrides make 'gpj.exe' read as 'exe.jpg'; zero-width characters hide in names
+    ['\u202Egpj.exe', 'gpj.exe'],
+    ['invoice\u202Efdp.exe', 'invoicefdp.exe'],
+    ['re\u200Bport\u2066.pdf', 'report.pdf'],
+    ['half \uD83E pair.txt', 'half pair.txt'],
   ])('%j → %j', (input, expected) => {
     expect(sanitizeFileName(input)).toBe(expected)
   })
@@ -35,6 +40,16 @@ describe('sanitizeFileName', () => {
     const cleaned = sanitizeFileName(long)
     expect(cleaned.length).toBe(120)
     expect(cleaned.endsWith('.xlsx')).toBe(true)
+  })
+
+  it('never cuts a character in two when shortening (the stored name would differ from the one shown)', () => {
+    const cleaned = sanitizeFileName(`${'x'.repeat(117)}${'🦎'.repeat(5)}`)
+    expect(cleaned).toBe(`${'x'.repeat(117)}🦎`)
+    fc.assert(fc.property(fc.array(fc.constantFrom('a', 'é', '🦎', '𝕏', ' ', '\u202E'), { minLength: 100, maxLength: 140 }).map(parts => parts.join('')), fc.constantFrom('', '.csv', '.🦎🦎'), (stem, ending) => {
+      const kept = sanitizeFileName(`${stem}${ending}`)
+      expect(kept).toBe(kept.toWellFormed())
+      expect(kept.length).toBeLessThanOrEqual(121)
+    }), { numRuns: 200, seed: 9 })
   })
 
   it('never returns path separators, control characters, leading dots or an empty name (property)', () => {
@@ -66,5 +81,8 @@ describe('contentDisposition', () => {
     const value = contentDisposition('a"b\\c\r\nSet-Cookie: x.txt')
     expect(value).not.toMatch(/[\r\n]/)
     expect(value.split('"').length).toBe(3)
+  })
+  it('does not throw on half a surrogate pair', () => {
+    expect(contentDisposition('a\uD83E.txt')).toBe('attachment; filename="a_.txt"; filename*=UTF-8\'\'a%EF%BF%BD.txt')
   })
 })
