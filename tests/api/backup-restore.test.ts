@@ -118,7 +118,7 @@ beforeAll(async () => {
   attachmentId = attached.body.id
   const uploaded = await uploadForm(biologist, `/api/subpopulations/${subpopulations['Stonelantern Flats']}/genotypes`, { name: 'alder-hollow.csv', content: ALDER_HOLLOW_CSV, type: 'text/csv' }, { markerType: 'microsatellite' })
   expect(uploaded.status).toBe(201)
-}, 60_000)
+}, 120_000)
 
 afterAll(async () => {
   await restoredApp?.stop()
