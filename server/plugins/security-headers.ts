@@ -24,7 +24,8 @@ export default defineNitroPlugin((nitroApp) => {
   }
 
   nitroApp.hooks.hook('nuxt-security:routeRules', (routeRules) => {
-    const csp = (routeRules['/**'] as SecurityRouteOptions | undefined)?.headers?.contentSecurityPolicy
+    const headers = (routeRules['/**'] as SecurityRouteOptions | undefined)?.headers
+    const csp = headers ? headers.contentSecurityPolicy : undefined
     if (!csp) return
     if (https) csp['upgrade-insecure-requests'] = true
     if (tiles) {
