@@ -10,7 +10,7 @@ import { defineNitroPlugin } from 'nitropack/runtime'
 import { HSTS_VALUE, servesHttps, tileImageSource } from '../security/runtime-headers'
 
 /** The slice of nuxt-security's per-route options this plugin edits. */
-interface SecurityRouteOptions { headers?: { contentSecurityPolicy?: Record<string, string[] | string | boolean> | false } }
+interface SecurityRouteOptions { headers?: false | { contentSecurityPolicy?: Record<string, string[] | string | boolean> | false } }
 
 export default defineNitroPlugin((nitroApp) => {
   const config = useRuntimeConfig() as { appUrl?: unknown, public?: { tileUrl?: unknown } }
@@ -23,8 +23,9 @@ export default defineNitroPlugin((nitroApp) => {
     })
   }
 
-  nitroApp.hooks.hook('nuxt-security:routeRules', (routeRules: Record<string, SecurityRouteOptions>) => {
-    const csp = routeRules['/**']?.headers?.contentSecurityPolicy
+  nitroApp.hooks.hook('nuxt-security:routeRules', (routeRules) => {
+    const headers = (routeRules['/**'] as SecurityRouteOptions | undefined)?.headers
+    const csp = headers ? headers.contentSecurityPolicy : undefined
     if (!csp) return
     if (https) csp['upgrade-insecure-requests'] = true
     if (tiles) {

@@ -76,7 +76,7 @@ describe('state-changing routes refuse requests from another site', () => {
   })
 
   it('lets the app\'s own pages through (same Origin, same-origin Referer, Sec-Fetch-Site same-origin)', async () => {
-    const own = [
+    const own: Record<string, string>[] = [
       { origin: server.url },
       { referer: `${server.url}/atlas` },
       { 'origin': server.url, 'sec-fetch-site': 'same-origin' },

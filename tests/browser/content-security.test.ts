@@ -34,9 +34,10 @@ async function recordViolations(page: Page): Promise<() => Promise<string[]>> {
   return async () => [...fromConsole, ...await page.evaluate(() => (window as unknown as { cspViolations?: string[] }).cspViolations ?? [])]
 }
 
-/** True once Vue has mounted the app on the server-rendered markup. */
-function hydrated(page: Page): Promise<boolean> {
-  return page.evaluate(() => Boolean((document.querySelector('#__nuxt') as { __vue_app__?: unknown } | null)?.__vue_app__))
+/** True once Vue has mounted the app on the server-rendered markup (waits up to 20 s for it). */
+async function hydrated(page: Page): Promise<boolean> {
+  const mounted = () => Boolean((document.querySelector('#__nuxt') as { __vue_app__?: unknown } | null)?.__vue_app__)
+  return page.waitForFunction(mounted, undefined, { timeout: 20_000 }).then(() => true, () => false)
 }
 
 async function ids(): Promise<{ subpopulation: number, approved: number, draft: number }> {
