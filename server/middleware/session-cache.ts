@@ -24,8 +24,8 @@ export default defineEventHandler(async (event) => {
   if (!sealed) return
   const remembered = rememberedSession(sealed)
   if (remembered) {
-    event.context.sessions ??= Object.create(null)
-    event.context.sessions[name] = remembered
+    const sessions: Record<string, unknown> = event.context.sessions ??= Object.create(null)
+    sessions[name] = remembered
     return
   }
   const session = await getSession(event, settings) as CachedSession
