@@ -234,7 +234,8 @@ async function readLimitedText(event: H3Event, maxBytes: number): Promise<string
       chunks.push(buffer)
     }
   } catch (error) {
-    if (isError(error)) throw error
+    // Our own answers (the 413 above) go out as they are.
+    if (error !== null && typeof error === 'object' && 'statusCode' in error) throw error
     // The client went away mid-body ("aborted", ECONNRESET): its fault, not the database's.
     throw createError({ status: 400, statusText: 'Bad Request', message: 'The request body was cut off before it arrived in full; send it again.' })
   }
