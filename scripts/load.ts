@@ -92,12 +92,16 @@ async function phase(name: string, url: string, requests: autocannon.Request[], 
   const latencies: number[] = []
   let non2xx = 0
   const cpuBefore = cpuMilliseconds(serverPid)
-  const instance = autocannon({ url, connections, duration: seconds, requests })
-  instance.on('response', (_client: unknown, statusCode: number, _bytes: number, responseTime: number) => {
-    latencies.push(responseTime)
-    if (statusCode < 200 || statusCode >= 300) non2xx++
+  const result = await new Promise<autocannon.Result>((resolve, reject) => {
+    const instance = autocannon({ url, connections, duration: seconds, requests }, (error: unknown, finished: autocannon.Result) => {
+      if (error) reject(error instanceof Error ? error : new Error(String(error)))
+      else resolve(finished)
+    })
+    instance.on('response', (_client, statusCode, _bytes, responseTime) => {
+      latencies.push(responseTime)
+      if (statusCode < 200 || statusCode >= 300) non2xx++
+    })
   })
-  const result = await instance
   const sorted = Float64Array.from(latencies).sort()
   return {
     name, read,
