@@ -8,7 +8,9 @@
  * sessionVersion }, loggedInAt }`. The user row is read from the database on every request, so
  * a deactivated user, or a user whose `session_version` moved on (password changed, signed out
  * everywhere), is refused at once: the cookie is cleared and the answer is 401. Role and name
- * come from the row, not the cookie (the cookie is refreshed when they differ).
+ * come from the row, not the cookie (the cookie is refreshed when they differ). The same query
+ * reads the records' version into `event.context.dataVersion` for `rememberedRead`; checks of
+ * requests arriving together share one query (server/utils/user-check.ts).
  *
  * Sessions last runtimeConfig.session.maxAge (12 hours) from sign-in: the sealed cookie carries
  * that lifetime and is refused after it ("Your session has expired."). There is no separate idle
@@ -20,6 +22,7 @@ import { randomBytes } from 'node:crypto'
 import type { H3Event } from 'h3'
 import type { User as UserModel } from '../db/models'
 import type { Role } from '#shared/types/db'
+import { checkUser } from './user-check'
 
 /** The signed-in person as routes see it (fresh from the database). */
 export interface CurrentUser {
@@ -119,9 +122,8 @@ export async function requireUser(event: H3Event): Promise<CurrentUser> {
     throw unauthorized('Your session has ended. Please sign in again.')
   }
   const claimed = session.user
-  const { models } = await useDb()
-  const row = await models.User.findByPk(claimed.id)
-  if (!row || !row.active || row.passwordHash === null || row.agencyId !== claimed.agencyId || row.sessionVersion !== claimed.sessionVersion) {
+  const row = await checkUser(claimed.id)
+  if (!row || !row.active || !row.hasPassword || row.agencyId !== claimed.agencyId || row.sessionVersion !== claimed.sessionVersion) {
     await clearUserSession(event)
     throw unauthorized('Your session has ended. Please sign in again.')
   }
@@ -131,6 +133,7 @@ export async function requireUser(event: H3Event): Promise<CurrentUser> {
     await setUserSession(event, { user: fresh })
   }
   event.context.currentUser = fresh
+  event.context.dataVersion = row.dataVersion
   return fresh
 }
 

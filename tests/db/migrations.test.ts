@@ -11,7 +11,7 @@ import { upSteps } from '../../server/db/runner'
 import { createTestDatabase, type TestDatabase } from '../support/db'
 
 const APP_TABLES = [
-  'agencies', 'agency_logos', 'agency_signing_certificates', 'attachments', 'audit_events', 'census_counts', 'comments',
+  'agencies', 'agency_logos', 'agency_signing_certificates', 'attachments', 'audit_events', 'census_counts', 'comments', 'data_version',
   'decisions', 'effective_size_estimates', 'genetic_datasets', 'issued_briefs', 'monitoring_observations',
   'outbox_messages', 'proposal_versions', 'proposals', 'scenarios', 'sign_in_attempts', 'simulation_runs', 'species',
   'subpopulations', 'translocations', 'user_tokens', 'users',

@@ -1,7 +1,8 @@
 /**
  * GET /api/proposals/:id → 200 ProposalDetailResponse: the proposal, recipient and sources with
  * their record figures, scenarios (baseline first), author, reviewer and last save.
- * Any signed-in role of the proposal's agency; another agency's proposal → 404.
+ * Any signed-in role of the proposal's agency; another agency's proposal → 404. Remembered until
+ * the records change (server/utils/read-cache.ts).
  */
 import type { ProposalDetailResponse } from '#shared/schemas/proposal'
 import { findAgencyProposal } from '../../utils/proposal-access'
@@ -10,6 +11,5 @@ import { proposalDetail } from '../../utils/proposal-detail'
 export default defineEventHandler(async (event): Promise<ProposalDetailResponse> => {
   const user = await requireUser(event)
   const { id } = getParamsWith(event, RecordIdParamsSchema)
-  const proposal = await findAgencyProposal(user, id)
-  return proposalDetail(proposal)
+  return rememberedRead(event, `proposal:${user.agencyId}:${id}`, async () => proposalDetail(await findAgencyProposal(user, id)))
 })

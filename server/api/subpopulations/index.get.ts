@@ -2,7 +2,7 @@
  * GET /api/subpopulations?speciesId= → 200 { items: SubpopulationDto[] } — the agency's
  * subpopulations (of one species when `speciesId` is given) by name, with boundary, latest
  * census, latest Ne estimate, working effective size and status. 404 when the species belongs
- * to another agency. Any signed-in role.
+ * to another agency. Any signed-in role. Remembered until the records change (server/utils/read-cache.ts).
  */
 import { z } from 'zod'
 import type { SubpopulationListResponse } from '#shared/atlas/types'
@@ -16,8 +16,10 @@ const QuerySchema = z.object({
 export default defineEventHandler(async (event): Promise<SubpopulationListResponse> => {
   const user = await requireUser(event)
   const { speciesId } = getQueryWith(event, QuerySchema)
-  const db = await useDb()
-  if (speciesId !== undefined) await ownSpecies(db.models, user.agencyId, speciesId)
-  const items = await loadSubpopulationDtos(db, { agencyId: user.agencyId, ...(speciesId === undefined ? {} : { speciesId }) })
-  return { items }
+  return rememberedRead(event, `subpopulations:${user.agencyId}:${speciesId ?? 'all'}`, async () => {
+    const db = await useDb()
+    if (speciesId !== undefined) await ownSpecies(db.models, user.agencyId, speciesId)
+    const items = await loadSubpopulationDtos(db, { agencyId: user.agencyId, ...(speciesId === undefined ? {} : { speciesId }) })
+    return { items }
+  })
 })

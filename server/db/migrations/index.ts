@@ -11,6 +11,7 @@ import * as proposalVersions from './0005-proposal-versions'
 import * as review from './0007-review'
 import * as issuedBriefs from './0006-issued-briefs'
 import * as simulationRuns from './0008-simulation-runs'
+import * as dataVersion from './0009-data-version'
 
 export const migrations: MigrationStep[] = [
   { name: '0001-foundation', ...foundation },
@@ -19,4 +20,5 @@ export const migrations: MigrationStep[] = [
   { name: '0006-issued-briefs', ...issuedBriefs },
   { name: '0007-review', ...review },
   { name: '0008-simulation-runs', ...simulationRuns },
+  { name: '0009-data-version', ...dataVersion },
 ]

@@ -1,0 +1,62 @@
+/**
+ * The check every signed-in request makes — is the user still active, in the same agency, on the
+ * same session version? — together with the records' version, batched across requests.
+ *
+ * Requests that arrive while the server is busy with one turn of its event loop are checked by
+ * one query (`WHERE id = ANY(...)`) started at the next turn (DataLoader with a setImmediate
+ * schedule, no caching). The query always starts after every request it answers has arrived, so
+ * each request still sees every change committed before it came in — a deactivation, a password
+ * change, a write of its own sent just before — exactly as with one query per request; under load
+ * one round trip to PostgreSQL serves many requests.
+ *
+ * The version (migration 0009-data-version) is read in the same query, before anything the
+ * route reads next; server/utils/read-cache.ts relies on that order.
+ */
+import DataLoader from 'dataloader'
+import { QueryTypes } from 'sequelize'
+import type { Role } from '#shared/types/db'
+
+/** What the check reads of one user, with the records' version at that moment. */
+export interface UserCheckRow {
+  id: number
+  agencyId: number
+  email: string
+  name: string
+  role: Role
+  sessionVersion: number
+  active: boolean
+  hasPassword: boolean
+  dataVersion: string
+}
+
+/** Most users checked by one query. */
+const MAX_BATCH = 256
+
+const USER_CHECK_SQL = `
+  SELECT u.id, u.agency_id AS "agencyId", u.email, u.name, u.role, u.session_version AS "sessionVersion", u.active,
+         u.password_hash IS NOT NULL AS "hasPassword", v.version::text AS "dataVersion"
+    FROM users u CROSS JOIN (SELECT version FROM data_version WHERE id = 1) v
+   WHERE u.id = ANY(ARRAY[:ids]::integer[])`
+
+async function checkUsers(ids: readonly number[]): Promise<(UserCheckRow | null)[]> {
+  const { sequelize } = await useDb()
+  const rows = await sequelize.query<UserCheckRow>(USER_CHECK_SQL, { replacements: { ids: [...new Set(ids)] }, type: QueryTypes.SELECT })
+  const byId = new Map(rows.map(row => [row.id, row]))
+  return ids.map(id => byId.get(id) ?? null)
+}
+
+const loader = new DataLoader<number, UserCheckRow | null>(checkUsers, {
+  cache: false,
+  maxBatchSize: MAX_BATCH,
+  batchScheduleFn: callback => setImmediate(callback),
+})
+
+/**
+ * The user row as it is now (null when there is no such user), and the records' version.
+ *
+ * @param id - the user id the session claims
+ * @throws what the database throws (unreachable → the error handler's 503)
+ */
+export function checkUser(id: number): Promise<UserCheckRow | null> {
+  return loader.load(id)
+}
