@@ -6,12 +6,14 @@
  * drives it with autocannon (100 connections):
  *   1. each main read route for TRIBUTARY_LOAD_SECONDS (default 20 s; 3 routes → 60 s):
  *      subpopulation list, one proposal, establishment calculation;
- *   2. a mixed profile (4 reads : 1 write — comments and effective-size estimates) for the same time;
+ *   2. a mixed profile for the same time: a fifth of the connections write (comments and
+ *      effective-size estimates, each write making remembered answers stale) while the others
+ *      read the three routes; reads and writes are reported apart;
  *   3. the read routes again, to compare the server's memory after the two read rounds.
  * Prints requests, errors, throughput and latency percentiles (p50/p95/p99, ms) per phase, the
  * server's resident memory after each phase, its CPU time per request, and whether each bar is met:
- *   0 errors (non-2xx or socket errors), read p95 < 100 ms, memory growth between the two read
- *   rounds < 15 %. Exits 1 when a bar is not met.
+ *   0 errors (non-2xx or socket errors), read p95 < 100 ms (every read stream, the mixed profile's
+ *   included), memory growth between the two read rounds < 15 %. Exits 1 when a bar is not met.
  * Settings: TRIBUTARY_LOAD_SECONDS, TRIBUTARY_LOAD_CONNECTIONS (default 100).
  */
 import { spawn, spawnSync } from 'node:child_process'
@@ -88,12 +90,15 @@ function percentile(sorted: Float64Array, fraction: number): number {
   return sorted[Math.min(sorted.length - 1, Math.ceil(fraction * sorted.length) - 1)] ?? Number.NaN
 }
 
-async function phase(name: string, url: string, requests: autocannon.Request[], read: boolean, serverPid: number): Promise<PhaseFigures> {
+/** One stream of requests within a phase: its own connections, cycling through its requests. */
+interface Stream { name: string, connections: number, requests: autocannon.Request[], read: boolean }
+
+/** Runs one autocannon instance for `stream` for the phase's duration; latencies and non-2xx answers counted. */
+async function drive(url: string, stream: Stream): Promise<{ latencies: number[], errors: number }> {
   const latencies: number[] = []
   let non2xx = 0
-  const cpuBefore = cpuMilliseconds(serverPid)
   const result = await new Promise<autocannon.Result>((resolve, reject) => {
-    const instance = autocannon({ url, connections, duration: seconds, requests }, (error: unknown, finished: autocannon.Result) => {
+    const instance = autocannon({ url, connections: stream.connections, duration: seconds, requests: stream.requests }, (error: unknown, finished: autocannon.Result) => {
       if (error) reject(error instanceof Error ? error : new Error(String(error)))
       else resolve(finished)
     })
@@ -102,16 +107,29 @@ async function phase(name: string, url: string, requests: autocannon.Request[], 
       if (statusCode < 200 || statusCode >= 300) non2xx++
     })
   })
-  const sorted = Float64Array.from(latencies).sort()
-  return {
-    name, read,
-    requests: latencies.length,
-    errors: non2xx + result.errors + result.timeouts,
-    perSecond: latencies.length / seconds,
-    p50: percentile(sorted, 0.5), p95: percentile(sorted, 0.95), p99: percentile(sorted, 0.99),
-    memory: residentMegabytes(serverPid),
-    cpuPerRequest: (cpuMilliseconds(serverPid) - cpuBefore) / Math.max(1, latencies.length),
-  }
+  return { latencies, errors: non2xx + result.errors + result.timeouts }
+}
+
+/**
+ * Runs the streams side by side for the phase's duration (together `connections` connections)
+ * and gives the figures of each; server CPU per request is over all the phase's requests.
+ */
+async function phase(url: string, streams: Stream[], serverPid: number): Promise<PhaseFigures[]> {
+  const cpuBefore = cpuMilliseconds(serverPid)
+  const outcomes = await Promise.all(streams.map(stream => drive(url, stream)))
+  const total = outcomes.reduce((sum, outcome) => sum + outcome.latencies.length, 0)
+  const cpuPerRequest = (cpuMilliseconds(serverPid) - cpuBefore) / Math.max(1, total)
+  const memory = residentMegabytes(serverPid)
+  return streams.map((stream, index) => {
+    const { latencies, errors } = outcomes[index]!
+    const sorted = Float64Array.from(latencies).sort()
+    return {
+      name: stream.name, read: stream.read, requests: latencies.length, errors,
+      perSecond: latencies.length / seconds,
+      p50: percentile(sorted, 0.5), p95: percentile(sorted, 0.95), p99: percentile(sorted, 0.99),
+      memory, cpuPerRequest,
+    }
+  })
 }
 
 async function waitForHealth(url: string): Promise<void> {
@@ -142,7 +160,7 @@ async function getJson<T>(url: string, cookie: string): Promise<T> {
 
 function line(figures: PhaseFigures): string {
   const cells = [
-    figures.name.padEnd(34), String(figures.requests).padStart(8), String(figures.errors).padStart(6),
+    figures.name.padEnd(42), String(figures.requests).padStart(8), String(figures.errors).padStart(6),
     figures.perSecond.toFixed(0).padStart(7), figures.p50.toFixed(1).padStart(7), figures.p95.toFixed(1).padStart(7),
     figures.p99.toFixed(1).padStart(7), figures.memory.toFixed(0).padStart(7), figures.cpuPerRequest.toFixed(2).padStart(9),
   ]
@@ -186,25 +204,32 @@ async function main(): Promise<number> {
       { method: 'POST', path: `/api/subpopulations/${subpopulationId}/effective-sizes`, headers, body: JSON.stringify({ method: 'sex-ratio', inputs: { males: 40, females: 55 } }) },
     ]
     const readList = Object.values(reads)
-    const mixed = [readList[0]!, writes[0]!, readList[1]!, readList[2]!, readList[0]!, writes[1]!, readList[1]!, readList[2]!, readList[0]!, readList[1]!]
+    // The mixed profile: a fifth of the connections write (a comment, an effective-size estimate)
+    // while the others read, each write making every remembered answer stale.
+    const writers = Math.max(1, Math.round(connections / 5))
+    const mixed: Stream[] = [
+      { name: 'mixed: reads (3 routes)', connections: connections - writers, requests: readList, read: true },
+      { name: 'mixed: writes (2 routes)', connections: writers, requests: writes, read: false },
+    ]
 
     console.log(`Load: ${connections} connections, ${seconds} s per phase, ${serverProcesses(server.pid!).length} server process(es) under pid ${server.pid} on ${url} (database ${databaseName}; TRIBUTARY_SERVER_PROCESSES sets the number of app processes)`)
     // Warm-up so the first phase does not measure module loading and JIT.
-    await phase('warm-up', url, readList, true, server.pid!)
-    console.log(['phase'.padEnd(34), 'requests'.padStart(8), 'errors'.padStart(6), 'req/s'.padStart(7), 'p50 ms'.padStart(7), 'p95 ms'.padStart(7), 'p99 ms'.padStart(7), 'RSS MB'.padStart(7), 'CPU ms/req'.padStart(9)].join(' '))
+    await phase(url, [{ name: 'warm-up', connections, requests: readList, read: true }], server.pid!)
+    console.log(['phase'.padEnd(42), 'requests'.padStart(8), 'errors'.padStart(6), 'req/s'.padStart(7), 'p50 ms'.padStart(7), 'p95 ms'.padStart(7), 'p99 ms'.padStart(7), 'RSS MB'.padStart(7), 'CPU ms/req'.padStart(9)].join(' '))
     const figures: PhaseFigures[] = []
-    const run = async (name: string, requests: autocannon.Request[], read: boolean) => {
-      const result = await phase(name, url, requests, read, server!.pid!)
-      console.log(line(result))
-      figures.push(result)
+    const run = async (streams: Stream[]) => {
+      for (const result of await phase(url, streams, server!.pid!)) {
+        console.log(line(result))
+        figures.push(result)
+      }
     }
-    for (const [name, request] of Object.entries(reads)) await run(`${name} (round 1)`, [request], true)
-    await run('mixed 4 reads : 1 write', mixed, false)
-    for (const [name, request] of Object.entries(reads)) await run(`${name} (round 2)`, [request], true)
+    for (const [name, request] of Object.entries(reads)) await run([{ name: `${name} (round 1)`, connections, requests: [request], read: true }])
+    await run(mixed)
+    for (const [name, request] of Object.entries(reads)) await run([{ name: `${name} (round 2)`, connections, requests: [request], read: true }])
 
     const errors = figures.reduce((sum, f) => sum + f.errors, 0)
     const worstReadP95 = Math.max(...figures.filter(f => f.read).map(f => f.p95))
-    const firstRound = figures[2]!.memory
+    const firstRound = figures[Object.keys(reads).length - 1]!.memory
     const secondRound = figures[figures.length - 1]!.memory
     const growth = (secondRound - firstRound) / firstRound
     const bars = [

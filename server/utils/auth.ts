@@ -9,7 +9,7 @@
  * a deactivated user, or a user whose `session_version` moved on (password changed, signed out
  * everywhere), is refused at once: the cookie is cleared and the answer is 401. Role and name
  * come from the row, not the cookie (the cookie is refreshed when they differ). The same query
- * reads the records' version into `event.context.dataVersion` for `rememberedRead`; checks of
+ * reads the records' versions into `event.context.dataVersions` for `rememberedRead`; checks of
  * requests arriving together share one query (server/utils/user-check.ts).
  *
  * Sessions last runtimeConfig.session.maxAge (12 hours) from sign-in: the sealed cookie carries
@@ -133,7 +133,7 @@ export async function requireUser(event: H3Event): Promise<CurrentUser> {
     await setUserSession(event, { user: fresh })
   }
   event.context.currentUser = fresh
-  event.context.dataVersion = row.dataVersion
+  event.context.dataVersions = row.dataVersions
   return fresh
 }
 

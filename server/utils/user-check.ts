@@ -9,8 +9,8 @@
  * change, a write of its own sent just before — exactly as with one query per request; under load
  * one round trip to PostgreSQL serves many requests.
  *
- * The version (migration 0009-data-version) is read in the same query, before anything the
- * route reads next; server/utils/read-cache.ts relies on that order.
+ * The records' versions (migration 0009-data-version) are read in the same query, before
+ * anything the route reads next; server/utils/read-cache.ts relies on that order.
  */
 import DataLoader from 'dataloader'
 import { QueryTypes } from 'sequelize'
@@ -26,22 +26,26 @@ export interface UserCheckRow {
   sessionVersion: number
   active: boolean
   hasPassword: boolean
-  dataVersion: string
+  /** The records' version, table by table (migration 0009-data-version); shared by the rows of one batch, read-only. */
+  dataVersions: Readonly<Record<string, number>>
 }
+
+type UserCheckQueryRow = Omit<UserCheckRow, 'dataVersions'> & { dataVersions: string }
 
 /** Most users checked by one query. */
 const MAX_BATCH = 256
 
 const USER_CHECK_SQL = `
   SELECT u.id, u.agency_id AS "agencyId", u.email, u.name, u.role, u.session_version AS "sessionVersion", u.active,
-         u.password_hash IS NOT NULL AS "hasPassword", v.version::text AS "dataVersion"
-    FROM users u CROSS JOIN (SELECT version FROM data_version WHERE id = 1) v
+         u.password_hash IS NOT NULL AS "hasPassword", v.versions::text AS "dataVersions"
+    FROM users u CROSS JOIN (SELECT versions FROM data_version WHERE id = 1) v
    WHERE u.id = ANY(ARRAY[:ids]::integer[])`
 
 async function checkUsers(ids: readonly number[]): Promise<(UserCheckRow | null)[]> {
   const { sequelize } = await useDb()
-  const rows = await sequelize.query<UserCheckRow>(USER_CHECK_SQL, { replacements: { ids: [...new Set(ids)] }, type: QueryTypes.SELECT })
-  const byId = new Map(rows.map(row => [row.id, row]))
+  const rows = await sequelize.query<UserCheckQueryRow>(USER_CHECK_SQL, { replacements: { ids: [...new Set(ids)] }, type: QueryTypes.SELECT })
+  const versions = rows[0] ? Object.freeze(JSON.parse(rows[0].dataVersions) as Record<string, number>) : {}
+  const byId = new Map(rows.map(row => [row.id, { ...row, dataVersions: versions }]))
   return ids.map(id => byId.get(id) ?? null)
 }
 

@@ -8,8 +8,13 @@ import type { ProposalDetailResponse } from '#shared/schemas/proposal'
 import { findAgencyProposal } from '../../utils/proposal-access'
 import { proposalDetail } from '../../utils/proposal-detail'
 
+/** What proposalDetail reads (server/utils/proposal-detail.ts and the helpers it calls). */
+const PROPOSAL_DETAIL_TABLES = [
+  'proposals', 'subpopulations', 'species', 'census_counts', 'effective_size_estimates', 'scenarios', 'users', 'proposal_versions',
+] as const
+
 export default defineEventHandler(async (event): Promise<ProposalDetailResponse> => {
   const user = await requireUser(event)
   const { id } = getParamsWith(event, RecordIdParamsSchema)
-  return rememberedRead(event, `proposal:${user.agencyId}:${id}`, async () => proposalDetail(await findAgencyProposal(user, id)))
+  return rememberedRead(event, `proposal:${user.agencyId}:${id}`, PROPOSAL_DETAIL_TABLES, async () => proposalDetail(await findAgencyProposal(user, id)))
 })

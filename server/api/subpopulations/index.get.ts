@@ -9,6 +9,9 @@ import type { SubpopulationListResponse } from '#shared/atlas/types'
 import { ownSpecies } from '../../atlas/records'
 import { loadSubpopulationDtos } from '../../atlas/subpopulation-dto'
 
+/** What the answer reads: the species check, the rows, their latest census and estimates. */
+const SUBPOPULATION_LIST_TABLES = ['species', 'subpopulations', 'census_counts', 'effective_size_estimates'] as const
+
 const QuerySchema = z.object({
   speciesId: RecordIdSchema.optional(),
 })
@@ -16,7 +19,7 @@ const QuerySchema = z.object({
 export default defineEventHandler(async (event): Promise<SubpopulationListResponse> => {
   const user = await requireUser(event)
   const { speciesId } = getQueryWith(event, QuerySchema)
-  return rememberedRead(event, `subpopulations:${user.agencyId}:${speciesId ?? 'all'}`, async () => {
+  return rememberedRead(event, `subpopulations:${user.agencyId}:${speciesId ?? 'all'}`, SUBPOPULATION_LIST_TABLES, async () => {
     const db = await useDb()
     if (speciesId !== undefined) await ownSpecies(db.models, user.agencyId, speciesId)
     const items = await loadSubpopulationDtos(db, { agencyId: user.agencyId, ...(speciesId === undefined ? {} : { speciesId }) })

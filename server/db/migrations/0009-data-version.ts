@@ -1,17 +1,20 @@
 /**
- * A version number for the records, so the server can keep answers to frequent reads in memory
- * and still never hand out an old one (server/utils/read-cache.ts).
+ * Versions of the records, table by table, so the server can keep answers to frequent reads in
+ * memory and still never hand out an old one (server/utils/read-cache.ts).
  *
- * data_version: one row; `version` goes up once in every transaction that changed a row of a
- * table listed in VERSIONED_TABLES (or truncated one). The increase is made by a deferred
- * constraint trigger, i.e. at commit time, in the same commit as the change: a reader that
- * reads the version and then the records sees records at least as new as the version, never
- * older. A transaction-local setting keeps it to one increase per transaction (an upload of ten
- * thousand rows bumps it once). Being the last lock a writer takes, just before its commit, the
- * row cannot take part in a deadlock.
+ * data_version: one row; `versions` holds a counter per table listed in VERSIONED_TABLES, which
+ * goes up once in every transaction that changed a row of that table (or truncated it). The
+ * increase is made by a deferred constraint trigger, i.e. at commit time, in the same commit as
+ * the change: a reader that reads the versions and then the records sees records at least as new
+ * as the versions, never older. A transaction-local setting per table keeps it to one increase
+ * per table and transaction (an upload of ten thousand rows bumps once).
  *
- * The first value is random, so a database rebuilt from scratch does not repeat the numbers an
- * old one had (a running server's memory would otherwise match them).
+ * One row rather than one per table: a writer locks it just before its commit and then takes no
+ * other lock, so it cannot take part in a deadlock (rows per table, locked in whatever order the
+ * changes were made, could).
+ *
+ * The counters start at a random number, so a database rebuilt from scratch does not repeat the
+ * numbers an old one had (a running server's memory would otherwise match them).
  *
  * Tables left out change often and feed no remembered answer: sign-in attempts, the mail
  * outbox, the audit log, one-time tokens and simulation runs (progress is written every few
@@ -29,23 +32,25 @@ export const VERSIONED_TABLES = [
 const UP = `
 CREATE TABLE data_version (
   id integer PRIMARY KEY CONSTRAINT data_version_single_row CHECK (id = 1),
-  version bigint NOT NULL
+  versions jsonb NOT NULL CONSTRAINT data_version_versions_object CHECK (jsonb_typeof(versions) = 'object')
 );
-INSERT INTO data_version (id, version) VALUES (1, floor(random() * 4503599627370496)::bigint);
+INSERT INTO data_version (id, versions)
+  SELECT 1, jsonb_object_agg(name, start)
+    FROM unnest(ARRAY[${VERSIONED_TABLES.map(table => `'${table}'`).join(', ')}]) AS name,
+         (SELECT floor(random() * 4503599627370496)::bigint AS start) AS first;
 
 CREATE FUNCTION tributary_bump_data_version() RETURNS trigger LANGUAGE plpgsql AS $$
+DECLARE
+  bumped text := 'tributary.data_version_' || TG_TABLE_NAME;
 BEGIN
-  IF current_setting('tributary.data_version_bumped', true) IS DISTINCT FROM 'yes' THEN
-    UPDATE data_version SET version = version + 1 WHERE id = 1;
-    PERFORM set_config('tributary.data_version_bumped', 'yes', true);
+  IF TG_OP = 'TRUNCATE' OR current_setting(bumped, true) IS DISTINCT FROM 'yes' THEN
+    UPDATE data_version
+       SET versions = jsonb_set(versions, ARRAY[TG_TABLE_NAME], to_jsonb(coalesce((versions ->> TG_TABLE_NAME)::bigint, 0) + 1))
+     WHERE id = 1;
+    IF TG_OP <> 'TRUNCATE' THEN
+      PERFORM set_config(bumped, 'yes', true);
+    END IF;
   END IF;
-  RETURN NULL;
-END
-$$;
-
-CREATE FUNCTION tributary_bump_data_version_now() RETURNS trigger LANGUAGE plpgsql AS $$
-BEGIN
-  UPDATE data_version SET version = version + 1 WHERE id = 1;
   RETURN NULL;
 END
 $$;
@@ -53,7 +58,7 @@ ${VERSIONED_TABLES.map(table => `
 CREATE CONSTRAINT TRIGGER ${table}_data_version AFTER INSERT OR UPDATE OR DELETE ON ${table}
   DEFERRABLE INITIALLY DEFERRED FOR EACH ROW EXECUTE FUNCTION tributary_bump_data_version();
 CREATE TRIGGER ${table}_data_version_truncate AFTER TRUNCATE ON ${table}
-  FOR EACH STATEMENT EXECUTE FUNCTION tributary_bump_data_version_now();`).join('')}
+  FOR EACH STATEMENT EXECUTE FUNCTION tributary_bump_data_version();`).join('')}
 `
 
 const DOWN = `
@@ -61,7 +66,6 @@ ${VERSIONED_TABLES.map(table => `
 DROP TRIGGER IF EXISTS ${table}_data_version ON ${table};
 DROP TRIGGER IF EXISTS ${table}_data_version_truncate ON ${table};`).join('')}
 DROP FUNCTION IF EXISTS tributary_bump_data_version();
-DROP FUNCTION IF EXISTS tributary_bump_data_version_now();
 DROP TABLE IF EXISTS data_version;
 `
 
