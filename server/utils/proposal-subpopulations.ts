@@ -5,6 +5,7 @@
  * to one agency.
  */
 import { Op, type Transaction } from 'sequelize'
+import { latestFiguresOf } from '../atlas/subpopulation-dto'
 import type { ProposalSubpopulationDto } from '#shared/schemas/proposal'
 import { workingEffectiveSize } from '#shared/atlas/working-effective-size'
 import type { InputIssue } from './validate'
@@ -22,7 +23,7 @@ export async function loadProposalSubpopulations(agencyId: number, ids: readonly
   const unique = [...new Set(ids)]
   const result = new Map<number, ProposalSubpopulationDto>()
   if (unique.length === 0) return result
-  const { models } = await useDb()
+  const { models, sequelize } = await useDb()
   const rows = await models.Subpopulation.findAll({
     where: { id: { [Op.in]: unique }, agencyId },
     include: [{ model: models.Species, as: 'species', attributes: ['id', 'commonName'] }],
@@ -30,29 +31,16 @@ export async function loadProposalSubpopulations(agencyId: number, ids: readonly
   })
   const found = rows.map(row => row.id)
   if (found.length === 0) return result
-  const censusRows = await models.CensusCount.findAll({
-    where: { subpopulationId: { [Op.in]: found } },
-    order: [['subpopulationId', 'ASC'], ['year', 'DESC'], ['id', 'DESC']],
-    transaction,
-  })
-  const estimateRows = await models.EffectiveSizeEstimate.findAll({
-    where: { subpopulationId: { [Op.in]: found } },
-    order: [['subpopulationId', 'ASC'], ['estimatedOn', 'DESC NULLS LAST'], ['createdAt', 'DESC'], ['id', 'DESC']],
-    transaction,
-  })
-  const latestCensus = new Map<number, { year: number, adults: number }>()
-  for (const row of censusRows) if (!latestCensus.has(row.subpopulationId)) latestCensus.set(row.subpopulationId, { year: row.year, adults: row.adults })
-  const latestEstimate = new Map<number, { method: string, value: number, estimatedOn: string | null }>()
-  for (const row of estimateRows) {
-    if (!latestEstimate.has(row.subpopulationId)) latestEstimate.set(row.subpopulationId, { method: row.method, value: row.value, estimatedOn: row.estimatedOn ?? null })
-  }
+  // The latest census and estimate of each, as the Atlas reads them (two queries for all).
+  const figures = await latestFiguresOf(sequelize, found, transaction)
 
   for (const row of rows) {
-    const census = latestCensus.get(row.id) ?? null
+    const latest = figures.get(row.id)
+    const census = latest?.census ?? null
     const working = workingEffectiveSize({
       workingNe: row.workingNe ?? null,
       workingNeReason: row.workingNeReason ?? null,
-      latestEstimate: latestEstimate.get(row.id) ?? null,
+      latestEstimate: latest?.estimate ?? null,
       latestCensus: census,
     })
     result.set(row.id, {
