@@ -2,24 +2,17 @@
  * Opens the session cookie once per distinct sealed value (see server/utils/session-cache.ts):
  * a remembered session is placed where h3 looks for it (`event.context.sessions[name]`), so
  * nuxt-auth-utils' `getUserSession` does not open the cookie again; otherwise the cookie is
- * opened here with the same settings nuxt-auth-utils uses and the result remembered.
+ * opened here with the same settings nuxt-auth-utils uses (server/utils/session-settings.ts) and
+ * the result remembered.
  * A cookie that does not open (tampered, expired) is left to the handlers exactly as it came.
  */
-import { getSession, type SessionConfig } from 'h3'
+import { getSession } from 'h3'
 import { rememberedSession, rememberSession, type CachedSession } from '../utils/session-cache'
-
-let config: SessionConfig | undefined
-
-/** The session settings nuxt-auth-utils builds: runtimeConfig.session, NUXT_SESSION_PASSWORD first. */
-function sessionConfig(): SessionConfig {
-  const runtime = useRuntimeConfig().session as SessionConfig
-  config ??= { ...runtime, password: process.env.NUXT_SESSION_PASSWORD || runtime.password }
-  return config
-}
+import { sessionCookieName, sessionSettings } from '../utils/session-settings'
 
 export default defineEventHandler(async (event) => {
-  const settings = sessionConfig()
-  const name = settings.name ?? 'h3'
+  const settings = sessionSettings()
+  const name = sessionCookieName()
   const sealed = getCookie(event, name)
   if (!sealed) return
   const remembered = rememberedSession(sealed)

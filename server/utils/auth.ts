@@ -22,6 +22,7 @@ import { randomBytes } from 'node:crypto'
 import type { H3Event } from 'h3'
 import type { User as UserModel } from '../db/models'
 import type { Role } from '#shared/types/db'
+import { sessionCookieName } from './session-settings'
 import { checkUser } from './user-check'
 
 /** The signed-in person as routes see it (fresh from the database). */
@@ -67,12 +68,6 @@ function looksLikeSessionUser(value: unknown): value is CurrentUser {
   return Number.isInteger(candidate.id) && Number.isInteger(candidate.agencyId) && Number.isInteger(candidate.sessionVersion)
 }
 
-/** Name of the session cookie (nuxt-auth-utils' default unless runtimeConfig.session.name says otherwise). */
-function sessionCookieName(event: H3Event): string {
-  const session = (useRuntimeConfig(event) as { session?: { name?: unknown } }).session
-  return typeof session?.name === 'string' && session.name ? session.name : 'nuxt-session'
-}
-
 /**
  * Starts (or replaces) the session of `user` on this response, as a new session: a new id and
  * creation time, never the one the browser came with (no session fixation). h3 would otherwise
@@ -81,7 +76,7 @@ function sessionCookieName(event: H3Event): string {
  */
 export async function startSession(event: H3Event, user: CurrentUser): Promise<void> {
   await clearUserSession(event)
-  const name = sessionCookieName(event)
+  const name = sessionCookieName()
   const incoming = event.node.req.headers.cookie
   if (incoming) {
     const others = incoming.split(';').map(part => part.trim()).filter(part => part && !part.startsWith(`${name}=`))
@@ -97,7 +92,7 @@ export async function startSession(event: H3Event, user: CurrentUser): Promise<v
  * request, so its creation time is not before `since`.
  */
 function sentUnacceptedCookie(event: H3Event, since: number): boolean {
-  const name = sessionCookieName(event)
+  const name = sessionCookieName()
   if (!getCookie(event, name)) return false
   const sessions = event.context.sessions as Record<string, { createdAt?: number }> | undefined
   return (sessions?.[name]?.createdAt ?? 0) >= since
