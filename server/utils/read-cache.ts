@@ -25,11 +25,8 @@
  */
 import type { H3Event } from 'h3'
 import { LRUCache } from 'lru-cache'
-import type { VERSIONED_TABLES } from '../db/migrations/0009-data-version'
+import type { VersionedTable } from '../db/versioned-tables'
 import { deepFreeze } from './deep-freeze'
-
-/** A table whose changes are counted (see the migration). */
-export type VersionedTable = typeof VERSIONED_TABLES[number]
 
 /** Most JSON text remembered per process (64 MB). */
 export const READ_CACHE_MAX_BYTES = 64 * 1024 * 1024

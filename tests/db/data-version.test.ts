@@ -8,7 +8,7 @@
 import { QueryTypes, Sequelize, type Transaction } from 'sequelize'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { runMigrations } from '../../server/db/migrate'
-import { VERSIONED_TABLES } from '../../server/db/migrations/0009-data-version'
+import { VERSIONED_TABLES } from '../../server/db/versioned-tables'
 import { createTestDatabase } from '../support/db'
 import { createMigratedDatabase, type MigratedDatabase } from './helpers'
 
