@@ -14,16 +14,10 @@
  */
 import DataLoader from 'dataloader'
 import { QueryTypes } from 'sequelize'
-import type { Role } from '#shared/types/db'
+import type { CurrentUser } from './auth'
 
-/** What the check reads of one user, with the records' version at that moment. */
-export interface UserCheckRow {
-  id: number
-  agencyId: number
-  email: string
-  name: string
-  role: Role
-  sessionVersion: number
+/** What the check reads of one user (the session user's fields and more), with the records' version at that moment. */
+export interface UserCheckRow extends CurrentUser {
   active: boolean
   hasPassword: boolean
   /** The records' version, table by table (migration 0009-data-version); shared by the rows of one batch, read-only. */
