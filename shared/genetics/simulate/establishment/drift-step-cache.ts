@@ -1,12 +1,23 @@
-import { binomialBtrdAcceptanceTable, binomialBtrdWithSetup, binomialInversionFromTable, binomialInversionTable, binomialSetup } from '../random/binomial'
+import { binomialBtrdAcceptanceTable, binomialBtrdFromUniform, binomialInversionFromTable, firstUniformSlot, binomialInversionTable, binomialSetup } from '../random/binomial'
 import type { RandomStream } from '../random/streams'
+import { uniform32 } from '../random/uniform'
 import { frequencyAfterSelection } from './selection-step'
 
 /** Largest number of sampled genes n for which setups are kept (≤ 4 MB per n). */
 export const MAXIMUM_CACHED_GENES = 65_536
 
-/** Entries per allele count: the state, then the sampler setup (7 entries, p* last). */
-const STRIDE = 8
+/**
+ * Entries per allele count: the state, the sampler setup (7 entries, p* last),
+ * then BTRD step 1's bound 0.86·v_r and 2a (BTRD counts only).
+ */
+const STRIDE = 10
+/** Where BTRD's b, a, c and v_r (`binomialSetup` entries 2–5) and the two products sit, from the count's offset. */
+const SETUP_B = 3
+const SETUP_A = 4
+const SETUP_C = 5
+const SETUP_BOX_LIMIT = 6
+const QUICK_LIMIT = 8
+const TWICE_A = 9
 const EMPTY = 0
 const DIRECT = 1
 const REFLECTED = 2
@@ -66,9 +77,21 @@ export class DriftStepCache {
     const state = entries[offset] as number
     // A count not drawn from a table uses the BTRD branch (binomialInversionTable
     // returns a table for every inversion setup).
-    const drawn = state > TABLED
-      ? binomialInversionFromTable(random, this.inversionTables[copies] as Float64Array) // set with the state
-      : binomialBtrdWithSetup(random, this.genes, entries, offset + 1, this.acceptanceTables[copies])
+    let drawn: number
+    if (state > TABLED) {
+      drawn = binomialInversionFromTable(random, this.inversionTables[copies] as Float64Array) // set with the state
+    } else {
+      // BTRD step 1 (about 86 % of draws) written out here with the same
+      // operations as `binomialBtrdFromUniform`, which takes over otherwise.
+      const v = uniform32(random)
+      if (v <= (entries[offset + QUICK_LIMIT] as number)) {
+        const u = v / (entries[offset + SETUP_BOX_LIMIT] as number) - 0.43
+        drawn = Math.floor(((entries[offset + TWICE_A] as number) / (0.5 - Math.abs(u)) + (entries[offset + SETUP_B] as number)) * u + (entries[offset + SETUP_C] as number))
+      } else {
+        firstUniformSlot[0] = v
+        drawn = binomialBtrdFromUniform(random, this.genes, entries, offset + 1, this.acceptanceTables[copies])
+      }
+    }
     return state === REFLECTED || state === REFLECTED + TABLED ? this.genes - drawn : drawn
   }
 
@@ -84,6 +107,9 @@ export class DriftStepCache {
       this.entries[offset] = (reflected ? REFLECTED : DIRECT) + TABLED
     } else {
       this.acceptanceTables[copies] = binomialBtrdAcceptanceTable(this.genes, this.entries, offset + 1)
+      // The products BTRD forms on every draw (0.86·v_r, 2·a), computed the same way.
+      this.entries[offset + QUICK_LIMIT] = 0.86 * (this.entries[offset + SETUP_BOX_LIMIT] as number)
+      this.entries[offset + TWICE_A] = 2 * (this.entries[offset + SETUP_A] as number)
     }
   }
 }

@@ -305,6 +305,30 @@ export function binomialBtrdAcceptanceTable(trials: number, setup: Float64Array,
  * @returns an integer in [0, n]
  */
 export function binomialBtrdWithSetup(random: RandomStream, trials: number, setup: Float64Array, offset: number, acceptance?: Float64Array): number {
+  firstUniformSlot[0] = uniform32(random)
+  return binomialBtrdFromUniform(random, trials, setup, offset, acceptance)
+}
+
+/** Hands the first uniform to `binomialBtrdFromUniform` without boxing a double per call. */
+export const firstUniformSlot = new Float64Array(1)
+
+/**
+ * `binomialBtrdWithSetup` with its first uniform already drawn (by a caller
+ * that tried BTRD step 1 itself and found v outside the quick box): the
+ * same steps on the same uniforms, so the draw is bit-for-bit the one
+ * `binomialBtrdWithSetup` makes from the stream positioned before that
+ * uniform.
+ *
+ * @param random - seeded generator (positioned after `firstUniform`)
+ * @param trials - n
+ * @param setup - array holding the BTRD constants
+ * @param offset - where they start
+ * @param acceptance - optional `binomialBtrdAcceptanceTable` of the same setup
+ * @param firstUniform - v of the first attempt, `uniform32(random)`
+ * @returns an integer in [0, n]
+ */
+export function binomialBtrdFromUniform(random: RandomStream, trials: number, setup: Float64Array, offset: number, acceptance: Float64Array | undefined): number {
+  const firstUniform = firstUniformSlot[0] as number
   // The entries exist by contract, hence the `as number` reads.
   const spread = setup[offset + 1] as number
   const b = setup[offset + 2] as number
@@ -313,8 +337,8 @@ export function binomialBtrdWithSetup(random: RandomStream, trials: number, setu
   const boxLimit = setup[offset + 5] as number
   const probability = setup[offset + 6] as number
   const quickLimit = 0.86 * boxLimit
-  for (;;) {
-    let v = uniform32(random)
+  // Every rejection (`continue`) starts the next attempt with a fresh v.
+  for (let v = firstUniform; ; v = uniform32(random)) {
     let u: number
     if (v <= quickLimit) {
       // Step 1: inside the box; u is uniform on [−0.43, 0.43].
