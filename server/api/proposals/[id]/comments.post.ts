@@ -26,8 +26,8 @@ export default defineEventHandler(async (event): Promise<CommentDto> => {
     const comment = await models.Comment.create({
       proposalId: proposal.id, authorId: user.id, body: input.body, mentions: mentioned.map(person => person.id),
     }, { transaction: t })
-    comment.author = await models.User.findByPk(user.id, { attributes: ['id', 'name'], transaction: t }) ?? undefined
-    const result = commentDto(comment, new Map(mentioned.map(person => [person.id, reviewPersonDto(person)])))
+    // The commenter is the signed-in user, whose name the user check has just read.
+    const result: CommentDto = { ...commentDto(comment, new Map(mentioned.map(person => [person.id, reviewPersonDto(person)]))), author: reviewPersonDto(user) }
     await recordAudit(t, {
       agencyId: user.agencyId, actorId: user.id, action: 'comment.create',
       entityType: 'comment', entityId: comment.id, before: null,
