@@ -170,6 +170,7 @@ describe('malformed files: a readable 4xx, nothing recorded, nothing stored', ()
     ['a VCF without samples', 'snp', 'x.vcf', '##fileformat=VCFv4.2\n#CHROM\tPOS\tID\tREF\tALT\tQUAL\tFILTER\tINFO\tFORMAT\n1\t100\tsnp1\tA\tG\t.\tPASS\t.\tGT\n'],
     ['a VCF with a genotype index past its alleles', 'snp', 'x.vcf', SMALL_VCF.replace('0/1\t0/0\t1/1', '0/7\t0/0\t1/1')],
     ['a VCF with a cut-off line', 'snp', 'x.vcf', `${SMALL_VCF.trimEnd()}\n2\t400\tsnp4\tG`],
+    ['a VCF whose POS is a word', 'snp', 'x.vcf', SMALL_VCF.replace('1\t200\tsnp2', '1\ttwo-hundred\tsnp2')],
     ['a CSV with a quote left open', 'microsatellite', 'x.csv', ALDER_HOLLOW_CSV.replace('AH2,101', 'AH2,"101')],
     ['a CSV with only a header', 'microsatellite', 'x.csv', 'id,Loc1_1,Loc1_2\n'],
     ['a CSV with an odd number of allele columns', 'microsatellite', 'x.csv', 'id,Loc1_1,Loc1_2,Loc2_1\nA1,101,103,200\n'],

@@ -4,6 +4,10 @@ import type { Genotype, GenotypeParseResult } from './types'
 const FIXED_COLUMNS = ['#CHROM', 'POS', 'ID', 'REF', 'ALT', 'QUAL', 'FILTER', 'INFO', 'FORMAT'] as const
 const BASE = /^[ACGTN]$/
 const DIPLOID_CALL = /^(\d+|\.)[/|](\d+|\.)$/
+/** CHROM: any identifier without white space (VCF 4.3 §1.6.1). */
+const CHROMOSOME = /^\S+$/
+/** POS: a non-negative integer, 1-based (0 stands for a telomere; VCF 4.3 §1.6.1). */
+const POSITION = /^\d{1,10}$/
 
 interface VcfSite {
   locus: string
@@ -118,6 +122,14 @@ function readSite(line: string, lineNumber: number, header: VcfHeader, errors: P
     return null
   }
   const [chrom = '', pos = '', id = '', ref = '', alt = '', , , , format = ''] = columns
+  if (!CHROMOSOME.test(chrom)) {
+    errors.add(lineNumber, `CHROM "${chrom}" is not a chromosome name (it must be non-empty, without spaces)`)
+    return null
+  }
+  if (!POSITION.test(pos)) {
+    errors.add(lineNumber, `POS "${pos}" is not a position (a whole number such as 10452)`)
+    return null
+  }
   const alleles = readAlleles(ref, alt, lineNumber, errors)
   if (!alleles) return null
   const gtIndex = format.split(':').indexOf('GT')
@@ -140,7 +152,8 @@ function readSite(line: string, lineNumber: number, header: VcfHeader, errors: P
  * - Line 1 is `##fileformat=VCFv4.x`; other `##` meta lines are skipped.
  * - The `#CHROM POS ID REF ALT QUAL FILTER INFO FORMAT <samples…>` header
  *   (tab-separated) names the samples; sample names must be unique.
- * - Each data line is one site with a single-base REF and a single-base ALT
+ * - Each data line is one site: CHROM without white space, POS a whole
+ *   number, a single-base REF and a single-base ALT
  *   (or `.` for a monomorphic site). Multi-allelic sites (ALT with a comma),
  *   indels and symbolic alleles are rejected with their line number.
  * - The locus name is the ID column, or `CHROM:POS` when ID is `.`; it must

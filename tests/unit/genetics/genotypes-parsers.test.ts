@@ -135,6 +135,9 @@ describe('parseVcf', () => {
       + '1\t106\trs7\tA\tG\t.\t.\t.\tGT\t0/1\t0/0\n' // 10 column missing
       + '1\t107\trs8\tA\tG\t.\t.\t.\tDP\t3\t4\t5\n' // 11 no GT
       + '1\t108\trs1\tA\tG\t.\t.\t.\tGT\t0/1\t0/0\t0/1/1\n' // 12 duplicate id, triploid call
+      + '1\tabc\trs9\tA\tG\t.\t.\t.\tGT\t0/1\t0/0\t0/0\n' // 13 POS not a number
+      + '1\t-5\trs10\tA\tG\t.\t.\t.\tGT\t0/1\t0/0\t0/0\n' // 14 negative POS
+      + ' \t110\trs11\tA\tG\t.\t.\t.\tGT\t0/1\t0/0\t0/0\n' // 15 blank CHROM
     expect(errorsOf(parseVcf(text))).toEqual([
       { line: 5, message: 'multi-allelic site (ALT "G,T"); only biallelic SNPs are supported, split or remove this site' },
       { line: 6, message: 'REF "AT" is not a single base; only biallelic SNPs are supported' },
@@ -145,6 +148,9 @@ describe('parseVcf', () => {
       { line: 11, message: 'FORMAT "DP" has no GT field, so the site has no genotypes' },
       { line: 12, message: 'sample "S3": genotype "0/1/1" has more than two alleles; only diploid calls such as 0/1 or 0|1 are supported' },
       { line: 12, message: 'site "rs1" already appears on line 4' },
+      { line: 13, message: 'POS "abc" is not a position (a whole number such as 10452)' },
+      { line: 14, message: 'POS "-5" is not a position (a whole number such as 10452)' },
+      { line: 15, message: 'CHROM " " is not a chromosome name (it must be non-empty, without spaces)' },
     ])
   })
 })
@@ -232,7 +238,7 @@ describe('parser properties', () => {
   })
 
   it('VCF: a corrupted site is reported on its own line', () => {
-    const corruption = fc.constantFrom('multi-allelic', 'drop-column', 'haploid', 'indel')
+    const corruption = fc.constantFrom('multi-allelic', 'drop-column', 'haploid', 'indel', 'position')
     fc.assert(fc.property(vcfSites, fc.nat(), corruption, (sites, pick, kind) => {
       const lines = toVcf(sites).split('\n')
       const lineNumber = 4 + (pick % sites.length) // the header takes lines 1–3
@@ -241,6 +247,7 @@ describe('parser properties', () => {
       if (kind === 'drop-column') columns.pop()
       if (kind === 'haploid') columns[9] = '1'
       if (kind === 'indel') columns[3] = `${columns[3]}A`
+      if (kind === 'position') columns[1] = `${columns[1]}.5`
       lines[lineNumber - 1] = columns.join('\t')
       expect(errorsOf(parseVcf(lines.join('\n'))).map(error => error.line)).toEqual([lineNumber])
     }))
