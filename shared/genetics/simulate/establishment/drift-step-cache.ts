@@ -3,7 +3,7 @@ import type { RandomStream } from '../random/streams'
 import { uniform32 } from '../random/uniform'
 import { frequencyAfterSelection } from './selection-step'
 
-/** Largest number of sampled genes n for which setups are kept (≤ 4 MB per n). */
+/** Largest number of sampled genes n for which setups are kept (at most about 5 MB of setups per n). */
 export const MAXIMUM_CACHED_GENES = 65_536
 
 /**
@@ -32,7 +32,7 @@ const TABLED = 2
  *
  * Why: replicates revisit the same counts over and over; keeping the
  * constants saves a square root, divisions and an exp/log per draw, and the
- * flat array (8 doubles per count) stays in cache; counts drawn by
+ * flat array (10 doubles per count) stays in cache; counts drawn by
  * inversion also keep their pmf (no division per step), the others go
  * straight to BTRD with its constants read from the array. The draw is
  * bit-for-bit the one `binomialDraw(random, n, p′)` would make, so using the
@@ -81,8 +81,9 @@ export class DriftStepCache {
     if (state > TABLED) {
       drawn = binomialInversionFromTable(random, this.inversionTables[copies] as Float64Array) // set with the state
     } else {
-      // BTRD step 1 (about 86 % of draws) written out here with the same
-      // operations as `binomialBtrdFromUniform`, which takes over otherwise.
+      // BTRD step 1 (v below 0.86·v_r: about two draws in three in the
+      // speed benchmark's model) written out here with the same operations
+      // as `binomialBtrdFromUniform`, which takes over with that v otherwise.
       const v = uniform32(random)
       if (v <= (entries[offset + QUICK_LIMIT] as number)) {
         const u = v / (entries[offset + SETUP_BOX_LIMIT] as number) - 0.43
