@@ -1,0 +1,92 @@
+/**
+ * `npm run bench:compare -- <git revision>`: how much faster (or slower) the simulation engine
+ * of this checkout is than the engine of an earlier revision, measured in one process by
+ * alternating the two on the same work.
+ *
+ * Why: on a shared virtual machine the same code measures 20–40 % apart from one run to the
+ * next (and up to 2× for the individual-based model), so comparing figures printed by two
+ * separate `npm run bench` runs says little. Running old and new in turn, pair after pair, in
+ * one process puts both under the same conditions, and the pairs of one run agree to about
+ * ±10 %. Between runs, and between harnesses that warm up or load modules differently, the
+ * overall ratio still moves by 10–20 % (the JIT's choices depend on what the process has run),
+ * so repeat it and treat smaller differences as noise.
+ *
+ * The revision's files are checked out with `git worktree` into a temporary folder (sharing
+ * this checkout's node_modules) and removed afterwards. Models as in bench/simulate.bench.ts:
+ * allele-frequency (N = Ne = 1000, 20 000 replicates per run) and individual-based
+ * (N = 500, 2000 load + 200 marker loci, 100 generations, one replicate per run).
+ * Prints CPU seconds per pair and the ratio old / new (> 1: this checkout is faster).
+ */
+import { execFileSync } from 'node:child_process'
+import { mkdtempSync, rmSync, symlinkSync } from 'node:fs'
+import { tmpdir } from 'node:os'
+import { dirname, join } from 'node:path'
+import { fileURLToPath, pathToFileURL } from 'node:url'
+import type { runEstablishmentReplicates as RunEstablishment, EstablishmentParams } from '../shared/genetics/simulate/establishment'
+import type { runRescueReplicates as RunRescue, RescueParams } from '../shared/genetics/simulate/rescue'
+
+const root = join(dirname(fileURLToPath(import.meta.url)), '..')
+const PAIRS = 8
+
+interface Engines { establishment: typeof RunEstablishment, rescue: typeof RunRescue }
+
+async function enginesAt(folder: string): Promise<Engines> {
+  const establishment = await import(pathToFileURL(join(folder, 'shared/genetics/simulate/establishment/index.ts')).href) as { runEstablishmentReplicates: typeof RunEstablishment }
+  const rescue = await import(pathToFileURL(join(folder, 'shared/genetics/simulate/rescue/index.ts')).href) as { runRescueReplicates: typeof RunRescue }
+  return { establishment: establishment.runEstablishmentReplicates, rescue: rescue.runRescueReplicates }
+}
+
+function cpuSeconds(action: () => void): number {
+  const start = process.cpuUsage()
+  action()
+  const used = process.cpuUsage(start)
+  return (used.user + used.system) / 1e6
+}
+
+/** Runs `old` and `current` in turn PAIRS times after one warm-up each; prints the pairs and the ratio of the sums. */
+function comparePaired(name: string, old: () => void, current: () => void): void {
+  old()
+  current()
+  let oldTotal = 0
+  let currentTotal = 0
+  const ratios: string[] = []
+  for (let pair = 0; pair < PAIRS; pair++) {
+    const oldTime = cpuSeconds(old)
+    const currentTime = cpuSeconds(current)
+    oldTotal += oldTime
+    currentTotal += currentTime
+    ratios.push((oldTime / currentTime).toFixed(2))
+  }
+  console.log(`${name}: old ${(oldTotal / PAIRS).toFixed(3)} s, this checkout ${(currentTotal / PAIRS).toFixed(3)} s CPU per run; old / new per pair ${ratios.join(' ')}; overall ${(oldTotal / currentTotal).toFixed(3)}×`)
+}
+
+async function main(): Promise<void> {
+  const revision = process.argv[2]
+  if (!revision) throw new Error('Name the revision to compare with, e.g. npm run bench:compare -- HEAD~3')
+  const folder = mkdtempSync(join(tmpdir(), 'tributary-compare-'))
+  const worktree = join(folder, 'checkout')
+  execFileSync('git', ['worktree', 'add', '--detach', worktree, revision], { cwd: root, stdio: 'ignore' })
+  try {
+    symlinkSync(join(root, 'node_modules'), join(worktree, 'node_modules'))
+    const old = await enginesAt(worktree)
+    const current = await enginesAt(root)
+    console.log(`Comparing the simulation engine of this checkout with ${revision} (${PAIRS} alternating pairs per model, CPU time)`)
+    const frequency: EstablishmentParams = { census: 1000, effectiveSize: 1000, s: 0.01, h: 0.5, sourceFrequency: 0.5, migrantsPerEvent: 10, eventInterval: 1, events: 1, generations: 10_000 }
+    const block = { seed: 1, firstReplicate: 0, replicates: 20_000 }
+    comparePaired('allele-frequency model', () => old.establishment(frequency, block), () => current.establishment(frequency, block))
+    const rescue: RescueParams = {
+      recipient: { census: 500, effectiveRatio: 1, burnInGenerations: 0 },
+      source: { census: 500, effectiveRatio: 1, burnInGenerations: 0 },
+      generations: 100, markerLoci: 200, load: { loci: 2000 },
+      adaptive: { s: 0.1, h: 0.5, sourceFrequency: 0.5 },
+      translocation: { migrantsPerEvent: 5, eventInterval: 10, events: 10 },
+    }
+    let replicate = 0
+    comparePaired('individual-based model', () => old.rescue(rescue, { seed: 7, firstReplicate: replicate, replicates: 1 }), () => current.rescue(rescue, { seed: 7, firstReplicate: replicate++, replicates: 1 }))
+  } finally {
+    execFileSync('git', ['worktree', 'remove', '--force', worktree], { cwd: root, stdio: 'ignore' })
+    rmSync(folder, { recursive: true, force: true })
+  }
+}
+
+await main()
