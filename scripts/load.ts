@@ -34,6 +34,7 @@ const root = fileURLToPath(new URL('..', import.meta.url))
 const seconds = Number(process.env.TRIBUTARY_LOAD_SECONDS ?? 20)
 const connections = Number(process.env.TRIBUTARY_LOAD_CONNECTIONS ?? 100)
 const writeRate = Number(process.env.TRIBUTARY_LOAD_WRITE_RATE ?? 20)
+if (!(writeRate > 0)) throw new Error(`TRIBUTARY_LOAD_WRITE_RATE must be a number of writes per second above 0, got "${process.env.TRIBUTARY_LOAD_WRITE_RATE}".`)
 const READ_P95_BAR_MS = 100
 const MEMORY_GROWTH_BAR = 0.15
 
