@@ -12,7 +12,7 @@
  * so repeat it and treat smaller differences as noise.
  *
  * The revision's files are checked out with `git worktree` into a temporary folder (sharing
- * this checkout's node_modules) and removed afterwards. Models as in bench/simulate.bench.ts:
+ * this checkout's node_modules) and removed afterwards. The models are bench/simulate.bench.ts's:
  * allele-frequency (N = Ne = 1000, 20 000 replicates per run) and individual-based
  * (N = 500, 2000 load + 200 marker loci, 100 generations, one replicate per run).
  * Prints CPU seconds per pair and the ratio old / new (> 1: this checkout is faster).
@@ -22,8 +22,9 @@ import { mkdtempSync, rmSync, symlinkSync } from 'node:fs'
 import { tmpdir } from 'node:os'
 import { dirname, join } from 'node:path'
 import { fileURLToPath, pathToFileURL } from 'node:url'
-import type { runEstablishmentReplicates as RunEstablishment, EstablishmentParams } from '../shared/genetics/simulate/establishment'
-import type { runRescueReplicates as RunRescue, RescueParams } from '../shared/genetics/simulate/rescue'
+import type { runEstablishmentReplicates as RunEstablishment } from '../shared/genetics/simulate/establishment'
+import type { runRescueReplicates as RunRescue } from '../shared/genetics/simulate/rescue'
+import { ALLELE_FREQUENCY_BENCH_PARAMS, ALLELE_FREQUENCY_BENCH_REPLICATES, rescueParams } from './simulate.bench'
 
 const root = join(dirname(fileURLToPath(import.meta.url)), '..')
 const PAIRS = 8
@@ -71,16 +72,10 @@ async function main(): Promise<void> {
     const old = await enginesAt(worktree)
     const current = await enginesAt(root)
     console.log(`Comparing the simulation engine of this checkout with ${revision} (${PAIRS} alternating pairs per model, CPU time)`)
-    const frequency: EstablishmentParams = { census: 1000, effectiveSize: 1000, s: 0.01, h: 0.5, sourceFrequency: 0.5, migrantsPerEvent: 10, eventInterval: 1, events: 1, generations: 10_000 }
-    const block = { seed: 1, firstReplicate: 0, replicates: 20_000 }
+    const frequency = ALLELE_FREQUENCY_BENCH_PARAMS
+    const block = { seed: 1, firstReplicate: 0, replicates: ALLELE_FREQUENCY_BENCH_REPLICATES }
     comparePaired('allele-frequency model', () => old.establishment(frequency, block), () => current.establishment(frequency, block))
-    const rescue: RescueParams = {
-      recipient: { census: 500, effectiveRatio: 1, burnInGenerations: 0 },
-      source: { census: 500, effectiveRatio: 1, burnInGenerations: 0 },
-      generations: 100, markerLoci: 200, load: { loci: 2000 },
-      adaptive: { s: 0.1, h: 0.5, sourceFrequency: 0.5 },
-      translocation: { migrantsPerEvent: 5, eventInterval: 10, events: 10 },
-    }
+    const rescue = rescueParams(500, 2000, 200, 100, 0)
     let replicate = 0
     comparePaired('individual-based model', () => old.rescue(rescue, { seed: 7, firstReplicate: replicate, replicates: 1 }), () => current.rescue(rescue, { seed: 7, firstReplicate: replicate++, replicates: 1 }))
   } finally {

@@ -40,12 +40,21 @@ const format = (value: number, digits = 2): string => value.toFixed(digits)
 /** Timed runs per figure (the best is kept), for both sides of a comparison. */
 const RUNS = 5
 
+/** N = Ne of the allele-frequency model timed here. */
+const ALLELE_FREQUENCY_BENCH_CENSUS = 1000
+
+/** The allele-frequency model timed here, also used by bench/compare-with-revision.ts. */
+export const ALLELE_FREQUENCY_BENCH_PARAMS: EstablishmentParams = {
+  census: ALLELE_FREQUENCY_BENCH_CENSUS, effectiveSize: ALLELE_FREQUENCY_BENCH_CENSUS, s: 0.01, h: 0.5, sourceFrequency: 0.5, migrantsPerEvent: 10, eventInterval: 1, events: 1, generations: 10_000,
+}
+
+/** Replicates per timed allele-frequency run. */
+export const ALLELE_FREQUENCY_BENCH_REPLICATES = 20_000
+
 function alleleFrequencyBenchmark(): void {
-  const census = 1000
-  const replicates = 20_000
-  const params: EstablishmentParams = {
-    census, effectiveSize: census, s: 0.01, h: 0.5, sourceFrequency: 0.5, migrantsPerEvent: 10, eventInterval: 1, events: 1, generations: 10_000,
-  }
+  const params = ALLELE_FREQUENCY_BENCH_PARAMS
+  const census = ALLELE_FREQUENCY_BENCH_CENSUS
+  const replicates = ALLELE_FREQUENCY_BENCH_REPLICATES
   console.log(`Allele-frequency model: N = Ne = ${census}, s = ${params.s}, h = ${params.h}, one event of ${params.migrantsPerEvent} animals at q = ${params.sourceFrequency}, horizon ${params.generations}, ${replicates} replicates`)
   runEstablishmentReplicates(params, { seed: 1, firstReplicate: 0, replicates: 2000 }) // warm-up (JIT)
   let work = 0
@@ -80,7 +89,8 @@ function alleleFrequencyBenchmark(): void {
   console.log(`  ratio TypeScript / numpy (CPU rates): ${format(ratio)}× (bar ≥ 2×: ${ratio >= 2 ? 'met' : 'NOT met'})`)
 }
 
-function rescueParams(census: number, loadLoci: number, markerLoci: number, generations: number, burnInGenerations: number): RescueParams {
+/** The individual-based model timed here at the given sizes (also used by bench/compare-with-revision.ts). */
+export function rescueParams(census: number, loadLoci: number, markerLoci: number, generations: number, burnInGenerations: number): RescueParams {
   return {
     recipient: { census, effectiveRatio: 1, burnInGenerations },
     source: { census, effectiveRatio: 1, burnInGenerations },
