@@ -14,9 +14,10 @@ const LOW_NIBBLES = 0x0f0f0f0f
  * accumulators hold eight 4-bit counters each (accumulator k counts bits
  * k, k+4, …, k+28): a haplotype adds (word >>> k) & 0x11111111 to
  * accumulator k (int32 sums, wrapping like the bit patterns they are) —
- * 12 operations per haplotype-word, no memory traffic but the read. Every 15 haplotypes the nibbles are split into eight
- * 8-bit accumulators (bits k, k+8, k+16, k+24), and every 255 those are
- * added into the 32-bit counts, before any lane can overflow.
+ * 12 operations per haplotype-word, no memory traffic but the read. Every
+ * 15 haplotypes the nibbles are split into eight 8-bit accumulators (bits
+ * k, k+8, k+16, k+24), and every 255 those are added into the 32-bit
+ * counts, before any lane can overflow.
  *
  * @param bits - haplotype bitsets, `haplotypes × words` 32-bit words
  * @param words - words per haplotype

@@ -14,8 +14,8 @@ export interface AdaptiveSelection {
  *
  * The log-fitness sums use byte lookup tables (`byteSums`): four lookups
  * for the homozygous and four for the heterozygous loci of each 32-locus
- * word. Cost O(N × loadWords). Lethal
- * homozygotes get fitness 0 (ln 0 = −∞).
+ * word. Cost O(N × loadWords). Lethal homozygotes get fitness 0
+ * (ln 0 = −∞).
  *
  * @param population - individuals to evaluate
  * @param architecture - byte tables of ln(1 − s) and ln(1 − h·s)

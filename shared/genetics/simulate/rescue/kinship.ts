@@ -15,10 +15,10 @@
  * The upper triangle is computed row by row (four reads from the two parents'
  * rows, which stay in cache) and each value is also written to its mirror
  * place down the column (consecutive rows fill the same cache lines):
- * O(N²/2) arithmetic, one pass over the matrix. (A separate mirroring pass
- * afterwards was about 20 % slower.) Stored in single precision (relative rounding ~6·10⁻⁸ per
- * generation): the matrix is the largest array of the model and its memory
- * traffic sets the cost.
+ * O(N²/2) arithmetic, one pass over the matrix (a separate mirroring pass
+ * afterwards was about 20 % slower). Stored in single precision (relative
+ * rounding ~6·10⁻⁸ per generation): the matrix is the largest array of the
+ * model and its memory traffic sets the cost.
  *
  * @param parentKinship - P × P kinship of resident parents (row-major)
  * @param parentCount - P
