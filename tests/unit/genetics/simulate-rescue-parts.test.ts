@@ -45,6 +45,47 @@ describe('offspringKinship (pedigree coancestry, by definition)', () => {
     expect(kinship[1 * 3 + 2]).toBe(0)
     expect(kinship[0]).toBe(0.5)
   })
+
+  it('stores, generation after generation, exactly what the recurrence written out pair by pair gives', () => {
+    // Reference: the recurrence itself, one pair at a time, in the operation order of the
+    // doc comment (¼ of the four parent kinships added left to right), rounded to single
+    // precision like the matrix (x < y, mirrored). Sizes that are not multiples of four exercise the last rows;
+    // parent numbers ≥ P (immigrants) the general path.
+    const recurrence = (parents: Float32Array, count: number, mothers: Int32Array, fathers: Int32Array): Float32Array => {
+      const of = (a: number, b: number): number => (a < count && b < count ? parents[a * count + b] ?? Number.NaN : a === b ? 0.5 : 0)
+      const size = mothers.length
+      const result = new Float32Array(size * size)
+      for (let x = 0; x < size; x++) {
+        for (let y = x; y < size; y++) {
+          const [mx, fx, my, fy] = [mothers[x] ?? 0, fathers[x] ?? 0, mothers[y] ?? 0, fathers[y] ?? 0]
+          result[x * size + y] = x === y ? 0.5 * (1 + of(mx, fx)) : 0.25 * (of(mx, my) + of(mx, fy) + of(fx, my) + of(fx, fy))
+          result[y * size + x] = result[x * size + y] ?? Number.NaN
+        }
+      }
+      return result
+    }
+    fc.assert(fc.property(
+      fc.integer({ min: 2, max: 41 }), fc.integer({ min: 1, max: 6 }), fc.boolean(), fc.integer({ min: 0, max: 2 ** 31 - 1 }),
+      (firstSize, generations, immigrants, seed) => {
+        const random = replicateStream(seed, 0)
+        let size = firstSize
+        let kinship = founderKinship(size)
+        let reference = founderKinship(size)
+        for (let generation = 0; generation < generations; generation++) {
+          const next = 2 + ((random.next() >>> 0) % 40)
+          const half = Math.ceil(size / 2)
+          const pick = (from: number, count: number): number => from + ((random.next() >>> 0) % count)
+          const mothers = Int32Array.from({ length: next }, () => (immigrants && (random.next() & 7) === 0 ? pick(size, 3) : pick(0, half)))
+          const fathers = Int32Array.from({ length: next }, () => pick(half, size - half))
+          kinship = offspringKinship(kinship, size, mothers, fathers, new Float32Array(next * next + 5))
+          reference = recurrence(reference, size, mothers, fathers)
+          size = next
+          if (!kinship.every((value, index) => Object.is(value, reference[index]))) return false
+        }
+        return true
+      },
+    ), { numRuns: 300 })
+  })
 })
 
 describe('countAlleles', () => {
