@@ -9,6 +9,7 @@ import { byteSums, equilibriumFrequency, genomeArchitecture } from '../../../sha
 import { rescuePlan } from '../../../shared/genetics/simulate/rescue/rescue-plan'
 import { allocatePopulation, founderKinship } from '../../../shared/genetics/simulate/rescue/population'
 import { gameteScratch, writeGamete } from '../../../shared/genetics/simulate/rescue/gamete'
+import { evaluateFitness } from '../../../shared/genetics/simulate/rescue/evaluate'
 import { replicateStream, sampleGamma, sharedStream } from '../../../shared/genetics/simulate/random'
 import type { RescueParams } from '../../../shared/genetics/simulate/rescue'
 
@@ -85,6 +86,42 @@ describe('offspringKinship (pedigree coancestry, by definition)', () => {
         return true
       },
     ), { numRuns: 300 })
+  })
+})
+
+describe('evaluateFitness', () => {
+  it('is the product over loci of 1 − s (homozygous), 1 − h·s (heterozygous) and the adaptive factor', () => {
+    // The definition (the function's doc comment), one locus at a time, against the byte-table
+    // sums taken word by word across individuals; equal up to rounding (relative 1e-12 on
+    // a few hundred terms).
+    fc.assert(fc.property(fc.integer({ min: 1, max: 300 }), fc.integer({ min: 1, max: 30 }), fc.integer({ min: 0, max: 2 ** 31 - 1 }), (loci, size, seed) => {
+      const params: RescueParams = {
+        recipient: { census: 2 }, source: { census: 2 }, generations: 1, markerLoci: 8, load: { loci, meanSelection: 0.02 },
+        translocation: { migrantsPerEvent: 0, eventInterval: 1, events: 0 },
+      }
+      const architecture = genomeArchitecture(rescuePlan('test', params), sharedStream(seed))
+      const population = allocatePopulation(size, architecture, false)
+      const random = replicateStream(seed, 1)
+      for (let i = 0; i < population.load.length; i++) population.load[i] = random.next() & random.next()
+      for (let i = 0; i < population.adaptive.length; i++) population.adaptive[i] = random.next() & 1
+      const selection = { s: 0.3, h: 0.25 }
+      const fitness = evaluateFitness(population, architecture, selection)
+      const words = architecture.loadWords
+      for (let individual = 0; individual < size; individual++) {
+        let expected = 1
+        for (let locus = 0; locus < loci; locus++) {
+          const bit = (haplotype: number): number => ((population.load[(2 * individual + haplotype) * words + (locus >> 5)] ?? 0) >>> (locus & 31)) & 1
+          const copies = bit(0) + bit(1)
+          const s = architecture.selection[locus] ?? 0
+          expected *= copies === 2 ? 1 - s : copies === 1 ? 1 - (architecture.dominance[locus] ?? 0) * s : 1
+        }
+        const adaptive = (population.adaptive[2 * individual] ?? 0) + (population.adaptive[2 * individual + 1] ?? 0)
+        expected *= adaptive === 2 ? 1.3 : adaptive === 1 ? 1.075 : 1
+        const got = fitness[individual] ?? Number.NaN
+        if (expected === 0 ? got !== 0 : Math.abs(got / expected - 1) > 1e-12) return false
+      }
+      return true
+    }), { numRuns: 150 })
   })
 })
 
