@@ -1,19 +1,27 @@
 import { describe, expect, it } from 'vitest'
 import fc from 'fast-check'
 import { offspringKinship } from '../../../shared/genetics/simulate/rescue/kinship'
+import { founderPedigree, meanPedigreeInbreeding, offspringPedigree, withFounders } from '../../../shared/genetics/simulate/rescue/pedigree'
 import { countAlleles } from '../../../shared/genetics/simulate/rescue/bit-counts'
 import { dominanceFromSelection, dominanceRate } from '../../../shared/genetics/simulate/rescue/dominance'
 import { reproductiveWeightShape } from '../../../shared/genetics/simulate/rescue/family-weights'
 import { linkageLayout, setBitRange } from '../../../shared/genetics/simulate/rescue/linkage'
 import { byteSums, equilibriumFrequency, genomeArchitecture } from '../../../shared/genetics/simulate/rescue/architecture'
 import { rescuePlan } from '../../../shared/genetics/simulate/rescue/rescue-plan'
-import { allocatePopulation, founderKinship } from '../../../shared/genetics/simulate/rescue/population'
+import { allocatePopulation } from '../../../shared/genetics/simulate/rescue/population'
 import { gameteScratch, writeGamete } from '../../../shared/genetics/simulate/rescue/gamete'
 import { evaluateFitness } from '../../../shared/genetics/simulate/rescue/evaluate'
 import { replicateStream, sampleGamma, sharedStream } from '../../../shared/genetics/simulate/random'
 import type { RescueParams } from '../../../shared/genetics/simulate/rescue'
 
 const Z = 4
+
+/** Kinship matrix of n unrelated, non-inbred founders: ½ on the diagonal, 0 elsewhere. */
+function founderKinship(n: number): Float32Array {
+  const kinship = new Float32Array(n * n)
+  for (let i = 0; i < n; i++) kinship[i * n + i] = 0.5
+  return kinship
+}
 
 describe('offspringKinship (pedigree coancestry, by definition)', () => {
   // Founders 0, 1 (female) and 2, 3 (male), unrelated and non-inbred.
@@ -89,6 +97,55 @@ describe('offspringKinship (pedigree coancestry, by definition)', () => {
   })
 })
 
+describe('pedigree among the parents that bred', () => {
+  // Reference: the full offspring kinship matrix of every generation (offspringKinship), as
+  // the model kept it before only breeders were tracked; F is read from its diagonal.
+  const fullInbreeding = (kinship: Float32Array, size: number): number => {
+    let sum = 0
+    for (let x = 0; x < size; x++) sum += 2 * (kinship[x * size + x] ?? Number.NaN) - 1
+    return sum / size
+  }
+
+  it('gives, generation after generation, the F that the full kinship matrix gives, with translocated founders and immigrants', () => {
+    fc.assert(fc.property(fc.integer({ min: 2, max: 30 }), fc.integer({ min: 1, max: 8 }), fc.integer({ min: 0, max: 2 ** 31 - 1 }), (firstSize, generations, seed) => {
+      const random = replicateStream(seed, 2)
+      const draw = (count: number): number => (random.next() >>> 0) % count
+      let size = firstSize
+      let full = founderKinship(size)
+      let pedigree = founderPedigree(size)
+      if (meanPedigreeInbreeding(pedigree) !== fullInbreeding(full, size)) return false
+      for (let generation = 0; generation < generations; generation++) {
+        if (draw(3) === 0) {
+          // A translocation: founders join (unrelated, non-inbred).
+          const count = 1 + draw(3)
+          const joined = new Float32Array((size + count) ** 2)
+          for (let x = 0; x < size; x++) joined.set(full.subarray(x * size, (x + 1) * size), x * (size + count))
+          for (let x = size; x < size + count; x++) joined[x * (size + count) + x] = 0.5
+          full = joined
+          pedigree = withFounders(pedigree, count)
+          size += count
+        }
+        const next = 2 + draw(30)
+        const immigrants = draw(2) === 0 ? 0 : 1 + draw(3)
+        const parent = (): number => (immigrants > 0 && draw(6) === 0 ? size + draw(immigrants) : draw(size))
+        const mothers = Int32Array.from({ length: next }, parent)
+        const fathers = Int32Array.from({ length: next }, parent)
+        // Every immigrant number in use, so that they are numbered 0…k−1 like the model's.
+        for (let k = 0; k < immigrants; k++) mothers[k % next] = size + k
+        const used = new Set([...mothers, ...fathers].filter(number => number >= size)).size
+        if (used !== immigrants) continue
+        full = offspringKinship(full, size, mothers, fathers)
+        pedigree = offspringPedigree(pedigree, mothers, fathers, used)
+        size = next
+        if (!Object.is(meanPedigreeInbreeding(pedigree), fullInbreeding(full, size))) return false
+        // The breeders' matrix holds only animals that had offspring.
+        if (pedigree.parentCount > new Set([...mothers, ...fathers]).size) return false
+      }
+      return true
+    }), { numRuns: 300 })
+  })
+})
+
 describe('evaluateFitness', () => {
   it('is the product over loci of 1 − s (homozygous), 1 − h·s (heterozygous) and the adaptive factor', () => {
     // The definition (the function's doc comment), one locus at a time, against the byte-table
@@ -100,7 +157,7 @@ describe('evaluateFitness', () => {
         translocation: { migrantsPerEvent: 0, eventInterval: 1, events: 0 },
       }
       const architecture = genomeArchitecture(rescuePlan('test', params), sharedStream(seed))
-      const population = allocatePopulation(size, architecture, false)
+      const population = allocatePopulation(size, architecture)
       const random = replicateStream(seed, 1)
       for (let i = 0; i < population.load.length; i++) population.load[i] = random.next() & random.next()
       for (let i = 0; i < population.adaptive.length; i++) population.adaptive[i] = random.next() & 1
@@ -256,10 +313,10 @@ describe('writeGamete', () => {
   function recombinationFractions(params: RescueParams, gametes: number): number[] {
     const plan = rescuePlan('test', params)
     const architecture = genomeArchitecture(plan, sharedStream(1))
-    const parent = allocatePopulation(1, architecture, false)
+    const parent = allocatePopulation(1, architecture)
     // Haplotype 0 carries no derived allele, haplotype 1 carries all of them.
     parent.markers.fill(-1, architecture.markerWords, 2 * architecture.markerWords)
-    const children = allocatePopulation(gametes, architecture, false)
+    const children = allocatePopulation(gametes, architecture)
     const random = replicateStream(9, 0)
     const scratch = gameteScratch(architecture)
     for (let g = 0; g < gametes; g++) writeGamete(parent, 0, children, g, 0, architecture, random, scratch)
@@ -300,8 +357,8 @@ describe('writeGamete', () => {
   it('adds Poisson(U) new harmful mutations per gamete', () => {
     const plan = rescuePlan('test', { ...base, load: { loci: 5000, mutationRate: 0.8 } })
     const architecture = genomeArchitecture(plan, sharedStream(1))
-    const parent = allocatePopulation(1, architecture, false)
-    const children = allocatePopulation(10_000, architecture, false)
+    const parent = allocatePopulation(1, architecture)
+    const children = allocatePopulation(10_000, architecture)
     const random = replicateStream(10, 0)
     const scratch = gameteScratch(architecture)
     for (let g = 0; g < children.size; g++) writeGamete(parent, 0, children, g, 0, architecture, random, scratch)

@@ -148,10 +148,10 @@ describe('simulateRescue: inbreeding depression from the load', () => {
     const pick = (list: number[]): number => list[uniformIndex(random, list.length)] ?? 0
     const count = 12_000
     // F = 0 relative to the current population: offspring of random pairs.
-    const outbred = allocatePopulation(count, meiosis, false)
+    const outbred = allocatePopulation(count, meiosis)
     // F = ¼: offspring of full sibs.
-    const siblings = allocatePopulation(2 * count, meiosis, false)
-    const inbred = allocatePopulation(count, meiosis, false)
+    const siblings = allocatePopulation(2 * count, meiosis)
+    const inbred = allocatePopulation(count, meiosis)
     for (let k = 0; k < count; k++) {
       writeGamete(population, pick(females), outbred, k, 0, meiosis, random, scratch)
       writeGamete(population, pick(males), outbred, k, 1, meiosis, random, scratch)

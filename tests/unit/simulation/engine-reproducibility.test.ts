@@ -47,6 +47,8 @@ const ESTABLISHMENT_DIGESTS = [
   'd44fc102a38b0c9f', '962ce5cc8369c507',
 ]
 const RESCUE_DIGEST = '1e38e3211bab84b4'
+/** With continuing migration (immigrant parents) and a census schedule; also computed with the engine at commit 13b090c. */
+const RESCUE_MIGRATION_DIGEST = '54d329fb6fd5314c'
 
 describe(`engine ${SIMULATION_ENGINE_VERSION}: same inputs and seed, same result`, () => {
   it('the allele-frequency model gives the recorded results', () => {
@@ -60,6 +62,14 @@ describe(`engine ${SIMULATION_ENGINE_VERSION}: same inputs and seed, same result
       markerLoci: 100, load: { loci: 300 }, adaptive: { s: 0.1, h: 0.5, sourceFrequency: 0.5 }, translocation: { migrantsPerEvent: 3, eventInterval: 5, events: 3 },
     }, { seed: 5, replicates: 4 })
     expect(digest(result)).toBe(RESCUE_DIGEST)
+  }, 60_000)
+
+  it('the individual-based model gives the recorded result with continuing migration', () => {
+    const result = simulateRescue({
+      recipient: { census: [40, 36, 30, 34], effectiveRatio: 0.3, burnInGenerations: 20 }, source: { census: 60, burnInGenerations: 20 }, generations: 25,
+      markerLoci: 64, load: { loci: 200 }, adaptive: { s: 0.1, h: 0.5, sourceFrequency: 0.5 }, translocation: { migrantsPerEvent: 2, eventInterval: 7, events: 3, migrationRate: 0.05 },
+    }, { seed: 11, replicates: 4 })
+    expect(digest(result)).toBe(RESCUE_MIGRATION_DIGEST)
   }, 60_000)
 
   it('cached drift steps (with BTRD acceptance tables) draw exactly what binomialDraw draws, many times per count', () => {

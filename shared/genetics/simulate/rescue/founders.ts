@@ -23,7 +23,7 @@ import type { Population } from './population'
  * @returns a new population without kinship
  */
 export function foundingPopulation(size: number, architecture: GenomeArchitecture, random: RandomStream): Population {
-  const population = allocatePopulation(size, architecture, false)
+  const population = allocatePopulation(size, architecture)
   const { markers, load } = population
   const markerWords = architecture.markerWords
   const lastMarkerBits = architecture.markerLoci - 32 * (markerWords - 1)

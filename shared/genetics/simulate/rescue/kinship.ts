@@ -125,8 +125,17 @@ function writeRowWithImmigrants(kinship: Float32Array, parentKinship: Float32Arr
   kinship[x * size + x] = 0.5 * (1 + kinshipOf(parentKinship, parentCount, mother, father))
 }
 
-/** Kinship of two parents by number: residents from the matrix; an immigrant is ½ with itself and 0 with anyone else. */
-function kinshipOf(parentKinship: Float32Array, parentCount: number, a: number, b: number): number {
+/**
+ * Kinship of two parents by number: residents (numbers < parentCount) from
+ * the matrix; an immigrant or founder is ½ with itself and 0 with anyone else.
+ *
+ * @param parentKinship - P × P kinship of resident parents
+ * @param parentCount - P
+ * @param a - a parent number
+ * @param b - another (or the same) parent number
+ * @returns f(a, b)
+ */
+export function kinshipOf(parentKinship: Float32Array, parentCount: number, a: number, b: number): number {
   if (a < parentCount && b < parentCount) return parentKinship[a * parentCount + b] as number
   return a === b ? 0.5 : 0
 }

@@ -1,5 +1,6 @@
 import type { GenomeArchitecture } from './architecture'
 import { countAlleles } from './bit-counts'
+import { meanPedigreeInbreeding } from './pedigree'
 import type { Population } from './population'
 
 /** Quantities recorded for one generation of one population. */
@@ -7,7 +8,7 @@ export interface GenerationMeasures {
   census: number
   /** Mean over marker loci of 2p(1 − p), p the allele frequency among the 2N genes. */
   heterozygosity: number
-  /** Mean pedigree inbreeding F of the individuals (NaN without kinship). */
+  /** Mean pedigree inbreeding F of the individuals (NaN without a pedigree). */
   pedigreeInbreeding: number
   /** Mean absolute fitness. */
   meanFitness: number
@@ -63,12 +64,7 @@ export function measureGeneration(population: Population, fitness: Float64Array,
     }
   }
 
-  let pedigreeInbreeding = Number.NaN
-  if (population.kinship) {
-    let sum = 0
-    for (let i = 0; i < size; i++) sum += 2 * (population.kinship[i * size + i] ?? 0.5) - 1
-    pedigreeInbreeding = sum / size
-  }
+  const pedigreeInbreeding = population.pedigree ? meanPedigreeInbreeding(population.pedigree) : Number.NaN
   let fitnessSum = 0
   for (const value of fitness) fitnessSum += value
   let adaptiveCopies = 0

@@ -1,4 +1,5 @@
 import type { GenomeArchitecture } from './architecture'
+import type { Pedigree } from './pedigree'
 
 /**
  * One generation of diploid adults in compact typed arrays.
@@ -17,8 +18,8 @@ export interface Population {
   load: Int32Array
   /** Adaptive-locus alleles (1 = A), size × 2. */
   adaptive: Uint8Array
-  /** Pedigree kinship matrix (size × size, row-major) relative to the founders of the phase; null when not tracked. */
-  kinship: Float32Array | null
+  /** Parents and their kinship, for pedigree F relative to the founders of the phase; null when not tracked. */
+  pedigree: Pedigree | null
 }
 
 /**
@@ -28,10 +29,9 @@ export interface Population {
  *
  * @param size - individuals, integer ≥ 0
  * @param architecture - genome layout
- * @param withKinship - whether to allocate a kinship matrix
- * @returns a new population
+ * @returns a new population without a pedigree
  */
-export function allocatePopulation(size: number, architecture: GenomeArchitecture, withKinship: boolean): Population {
+export function allocatePopulation(size: number, architecture: GenomeArchitecture): Population {
   const male = new Uint8Array(size)
   male.fill(1, Math.ceil(size / 2))
   return {
@@ -40,20 +40,6 @@ export function allocatePopulation(size: number, architecture: GenomeArchitectur
     markers: new Int32Array(size * 2 * architecture.markerWords),
     load: new Int32Array(size * 2 * architecture.loadWords),
     adaptive: new Uint8Array(size * 2),
-    kinship: withKinship ? new Float32Array(size * size) : null,
+    pedigree: null,
   }
-}
-
-/**
- * Kinship matrix of unrelated, non-inbred founders: ½ on the diagonal
- * (self-kinship ½(1 + F) with F = 0), 0 elsewhere.
- *
- * @param size - individuals
- * @returns a new size × size matrix
- * @example founderKinship(2) // Float32Array [0.5, 0, 0, 0.5]
- */
-export function founderKinship(size: number): Float32Array {
-  const kinship = new Float32Array(size * size)
-  for (let i = 0; i < size; i++) kinship[i * size + i] = 0.5
-  return kinship
 }

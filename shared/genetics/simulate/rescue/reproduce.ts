@@ -5,7 +5,7 @@ import type { GenomeArchitecture } from './architecture'
 import { matingWeights, reproductiveWeightShape } from './family-weights'
 import { writeGamete } from './gamete'
 import type { GameteScratch } from './gamete'
-import { offspringKinship } from './kinship'
+import { offspringPedigree } from './pedigree'
 import { allocatePopulation } from './population'
 import type { Population } from './population'
 
@@ -19,7 +19,7 @@ export interface ImmigrantSupply {
 /** Buffers reused from generation to generation. */
 export interface ReproductionScratch {
   gamete: GameteScratch
-  /** Two kinship buffers used in turn (the parents hold one, the offspring get the other). */
+  /** Two buffers for the parents' kinship used in turn (the breeding generation's pedigree holds one, the offspring's gets the other). */
   kinship: [Float32Array, Float32Array]
 }
 
@@ -43,8 +43,8 @@ export function reproductionScratch(gamete: GameteScratch): ReproductionScratch 
  * instead, with probability m, a random adult of that sex from the source.
  * Selection is thus on fecundity/viability of parents (the usual
  * Wright–Fisher individual-based scheme). The first ⌈N/2⌉ offspring are
- * female. Gametes by `writeGamete`; pedigree kinship by `offspringKinship`
- * when the parents carry a kinship matrix.
+ * female. Gametes by `writeGamete`; the offspring's pedigree (kinship among
+ * the parents that bred) by `offspringPedigree` when the parents carry one.
  *
  * @param parents - breeding adults (residents plus any translocated animals)
  * @param parentFitness - fitness of each parent (from `evaluateFitness`)
@@ -80,8 +80,8 @@ export function reproduce(
   if (immigrants && immigrants.rate > 0) {
     for (let i = 0; i < immigrants.source.size; i++) (immigrants.source.male[i] === 1 ? immigrantMales : immigrantFemales).push(i)
   }
-  const trackKinship = parents.kinship !== null
-  const offspring = allocatePopulation(offspringCount, architecture, false)
+  const trackKinship = parents.pedigree !== null
+  const offspring = allocatePopulation(offspringCount, architecture)
   const mothers = new Int32Array(offspringCount)
   const fathers = new Int32Array(offspringCount)
   // Immigrants get parent numbers P, P+1, … in order of first use (kinship only).
@@ -108,12 +108,13 @@ export function reproduce(
       }
     }
   }
-  if (parents.kinship) {
+  if (parents.pedigree) {
     const [first, second] = scratch.kinship
-    const free = first.buffer === parents.kinship.buffer ? second : first
-    const needed = offspringCount * offspringCount
-    const buffer = free.length >= needed ? free : new Float32Array(Math.ceil(needed * 1.25))
-    offspring.kinship = offspringKinship(parents.kinship, parents.size, mothers, fathers, buffer)
+    const free = first.buffer === parents.pedigree.parentKinship.buffer ? second : first
+    // At most every parent and immigrant breeds.
+    const most = parents.size + immigrantNumber.size
+    const buffer = free.length >= most * most ? free : new Float32Array(Math.ceil(most * most * 1.25))
+    offspring.pedigree = offspringPedigree(parents.pedigree, mothers, fathers, immigrantNumber.size, buffer)
     scratch.kinship = free === first ? [buffer, second] : [first, buffer]
   }
   return offspring

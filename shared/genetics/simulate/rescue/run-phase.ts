@@ -32,7 +32,7 @@ export type ArmRecord = Record<RescueMetric, Float64Array>
  *
  * @param plan - validated inputs
  * @param architecture - genome
- * @param recipient - recipient at phase start, with founder kinship (not modified)
+ * @param recipient - recipient at phase start, with a founder pedigree (not modified)
  * @param source - source at phase start (not modified), or null for the no-translocation arm
  * @param recipientRandom - the recipient's phase stream (advanced)
  * @param sourceRandom - the source's phase stream (advanced; unused without translocation)

@@ -3,7 +3,7 @@ import type { RandomStream } from '../random/streams'
 import type { GenomeArchitecture } from './architecture'
 import { burnIn } from './burn-in'
 import { assignAdaptiveAlleles } from './founders'
-import { founderKinship } from './population'
+import { founderPedigree } from './pedigree'
 import type { RescuePlan } from './rescue-plan'
 import { runPhase } from './run-phase'
 import type { ArmRecord } from './run-phase'
@@ -18,7 +18,7 @@ export interface ReplicateRecord {
 /**
  * One replicate: burn in the recipient and the source (each from its own
  * child stream), give the adaptive allele its starting frequencies, set the
- * recipient's pedigree base (founder kinship), then run the phase twice from
+ * recipient's pedigree base (all founders), then run the phase twice from
  * the same populations and the same generator state — with and without
  * translocation — so the difference between the arms is the effect of the
  * translocations, not of a different history (common random numbers).
@@ -41,7 +41,7 @@ export function runRescueReplicate(plan: RescuePlan, architecture: GenomeArchite
   if (!recipient) return { withTranslocation: extinctRecord(plan.generations), withoutTranslocation: extinctRecord(plan.generations) }
   assignAdaptiveAlleles(recipient, plan.adaptive?.recipientFrequency ?? 0, recipientBurnIn)
   if (source) assignAdaptiveAlleles(source, plan.adaptive?.sourceFrequency ?? 0, sourceBurnIn)
-  recipient.kinship = founderKinship(recipient.size)
+  recipient.pedigree = founderPedigree(recipient.size)
   return {
     withTranslocation: runPhase(plan, architecture, recipient, source, recipientPhase.clone(), sourcePhase),
     withoutTranslocation: runPhase(plan, architecture, recipient, null, recipientPhase, sourcePhase.clone()),

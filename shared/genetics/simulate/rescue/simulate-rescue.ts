@@ -44,7 +44,7 @@ import type { RescueOptions, RescueParams, RescueResult } from './types'
  *   keeps evolving on its own schedule.
  * - Pedigree F: kinship matrix from the founders at the start of the phase
  *   (F = 0, unrelated), migrants and immigrants counted as founders
- *   (`offspringKinship`). Marker F = 1 − H_t/H_0, same base. Loads as in
+ *   (`offspringKinship` among the animals that bred, `offspringPedigree`). Marker F = 1 − H_t/H_0, same base. Loads as in
  *   `measureGeneration` (B = Σ q(1−q)s(1−2h); drift load 1 − Π_fixed(1 − s)).
  * - Paired arms: each replicate runs the phase with and without
  *   translocation from the same burned-in populations and generator state;
@@ -54,7 +54,7 @@ import type { RescueOptions, RescueParams, RescueResult } from './types'
  * replicate r from `replicateStream(seed, r)`, so any split of replicates
  * between workers (`runRescueReplicates` + `mergeRescuePartials`) gives
  * the same result. Cost per replicate ≈ (burn-in + 3 × phase) population-
- * generations of O(N·(loci/32) + N²) each (the N² is the kinship matrix).
+ * generations of O(N·(loci/32) + N²) each (the N² is the kinship matrix among the parents).
  *
  * @param params - see `RescueParams` (census N ≥ 2, effectiveRatio in (0, 1],
  *   generations in [1, 10 000], loci counts, load, adaptive variant,

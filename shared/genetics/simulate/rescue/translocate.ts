@@ -1,6 +1,7 @@
 import type { RandomStream } from '../random/streams'
 import { uniformIndex } from '../random/uniform'
 import type { GenomeArchitecture } from './architecture'
+import { withFounders } from './pedigree'
 import { allocatePopulation } from './population'
 import type { Population } from './population'
 
@@ -22,7 +23,7 @@ import type { Population } from './population'
  */
 export function withMigrants(recipient: Population, source: Population, count: number, architecture: GenomeArchitecture, random: RandomStream): Population {
   const size = recipient.size + count
-  const joined = allocatePopulation(size, architecture, false)
+  const joined = allocatePopulation(size, architecture)
   const { markerWords, loadWords } = architecture
   joined.male.set(recipient.male)
   joined.markers.set(recipient.markers)
@@ -41,11 +42,6 @@ export function withMigrants(recipient: Population, source: Population, count: n
     joined.adaptive[2 * target] = source.adaptive[2 * chosen] as number
     joined.adaptive[2 * target + 1] = source.adaptive[2 * chosen + 1] as number
   }
-  if (recipient.kinship) {
-    const kinship = new Float32Array(size * size)
-    for (let i = 0; i < recipient.size; i++) kinship.set(recipient.kinship.subarray(i * recipient.size, (i + 1) * recipient.size), i * size)
-    for (let i = recipient.size; i < size; i++) kinship[i * size + i] = 0.5
-    joined.kinship = kinship
-  }
+  if (recipient.pedigree) joined.pedigree = withFounders(recipient.pedigree, count)
   return joined
 }
