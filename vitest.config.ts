@@ -6,7 +6,8 @@ const alias = { '#shared': `${root}shared`, '~~': root, '@@': root }
 
 /**
  * Test projects:
- * - unit: pure code (engine, schemas, helpers), node environment, no services.
+ * - unit: pure code (engine, schemas, helpers), node environment, no services; property tests
+ *   from a fixed seed (tests/support/fast-check-seed.ts).
  * - db: real PostgreSQL, throw-away databases (see tests/db/setup.ts).
  * - api: HTTP end-to-end against the built server (.output), one server per file.
  * - browser: Debian's Chromium through playwright-core against the built server.
@@ -17,7 +18,7 @@ export default defineConfig({
     projects: [
       {
         resolve: { alias },
-        test: { name: 'unit', environment: 'node', include: ['tests/unit/**/*.test.ts'] },
+        test: { name: 'unit', environment: 'node', include: ['tests/unit/**/*.test.ts'], setupFiles: ['tests/support/fast-check-seed.ts'] },
       },
       {
         resolve: { alias },

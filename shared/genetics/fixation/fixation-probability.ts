@@ -15,8 +15,9 @@ import { logFixationProbabilityChecked } from './log-fixation-probability'
  * and s only through Ne·s. Numerics: log-space composite Gauss–Legendre with
  * breakpoints at 0, p, 1 and the stationary point x*, closed form with expm1
  * when h = ½, first-order series when |2·Ne·s| is tiny (SCIENCE.md §1.5).
- * Relative error about 10⁻¹³ against 50-digit references (limited by the
- * rounding of the inputs when |2·Ne·s| is near 10⁶).
+ * Relative error about 10⁻¹³ against 50-digit references, plus about
+ * ε·|2·Ne·s| from rounding the exponent (10⁻¹¹ at |2·Ne·s| ≈ 10⁵, up to
+ * ~10⁻¹⁰ near 10⁶; ε = 2⁻⁵²).
  * Assumptions: constant Ne, s and h over the whole sojourn; random mating; no
  * further migration or mutation; one locus; weak selection (|s| ≲ 0.1) and
  * Ne not tiny — see `fixationMethodWarnings` for when the diffusion itself

@@ -116,13 +116,26 @@ describe('fixationProbability properties', () => {
     }), { numRuns: 2000 })
   })
 
+  // Each side is right to about 1e-13 plus the rounding of the exponent 2·Ne·s·(2h·x + (1 − 2h)·x²),
+  // about ε·|2·Ne·s| relative (random seeds found sums off by 1.5e-12 at |2·Ne·s| = 1.6×10⁴ and
+  // 1.0e-11 at 1.3×10⁵), hence the tolerance 1e-12 + 8·ε·|2·Ne·s|.
   it('satisfies u_A(p; s, h) + u_a(1 − p; −s, 1 − h) = 1 (the same process seen from the other allele)', () => {
     const symmetric = domain.filter(({ s, h }) => 1 - s > 0 && 1 - (1 - h) * s > 0)
     fc.assert(fc.property(symmetric, (inputs: FixationInputs) => {
       const other = { ...inputs, s: -inputs.s, h: 1 - inputs.h, copies: 2 * inputs.census - inputs.copies }
       const sum = fixationProbability(inputs) + fixationProbability(other)
-      expect(Math.abs(sum - 1)).toBeLessThanOrEqual(1e-12)
+      expect(Math.abs(sum - 1)).toBeLessThanOrEqual(1e-12 + 8 * Number.EPSILON * Math.abs(2 * inputs.effectiveSize * inputs.s))
     }), { numRuns: 2000 })
+  })
+
+  it('keeps the relabelled side within 2e-12 where the density peaks just inside p, near 1 (|2·Ne·s| ≈ 1.6×10⁴)', () => {
+    // Found by the property above with a random seed. Reference: independent mpmath
+    // computation (mpmath 1.3, 40 digits, quad with breakpoints 0, x*, p, 1 on the exact
+    // IEEE inputs): u_A = 6.6914800631240396e-4, u_a = 0.99933085199368760672 (nearest doubles below).
+    const inputs = { census: 107507, effectiveSize: 89867.46998564518, copies: 1, s: 0.09118410117554383, h: -0.00002794235135683554 }
+    const other = { ...inputs, s: -inputs.s, h: 1 - inputs.h, copies: 2 * inputs.census - 1 }
+    expect(Math.abs(fixationProbability(inputs) / 6.69148006312404e-4 - 1)).toBeLessThanOrEqual(1e-13)
+    expect(Math.abs(fixationProbability(other) - 0.9993308519936877)).toBeLessThanOrEqual(2e-12)
   })
 })
 
