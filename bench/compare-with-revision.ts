@@ -12,23 +12,19 @@
  * so repeat it and treat smaller differences as noise.
  *
  * The revision's files are checked out with `git worktree` into a temporary folder (sharing
- * this checkout's node_modules) and removed afterwards. The models are bench/simulate.bench.ts's:
+ * this checkout's node_modules; bench/revision-checkout.ts) and removed afterwards. The models are bench/simulate.bench.ts's:
  * allele-frequency (N = Ne = 1000, 20 000 replicates per run) and individual-based
  * (N = 500, 2000 load + 200 marker loci, 100 generations, one replicate per run).
  * Prints CPU seconds per pair and the ratio old / new (> 1: this checkout is faster), overall
  * (ratio of the sums) and for the median pair. TRIBUTARY_COMPARE_PAIRS sets the number of pairs
  * (default 8).
  */
-import { execFileSync } from 'node:child_process'
-import { mkdtempSync, rmSync, symlinkSync } from 'node:fs'
-import { tmpdir } from 'node:os'
-import { dirname, join } from 'node:path'
-import { fileURLToPath, pathToFileURL } from 'node:url'
+import { join } from 'node:path'
+import { pathToFileURL } from 'node:url'
 import type { runEstablishmentReplicates as RunEstablishment } from '../shared/genetics/simulate/establishment'
 import type { runRescueReplicates as RunRescue } from '../shared/genetics/simulate/rescue'
+import { checkoutRoot, withRevisionCheckout } from './revision-checkout'
 import { ALLELE_FREQUENCY_BENCH_PARAMS, ALLELE_FREQUENCY_BENCH_REPLICATES, rescueParams } from './simulate.bench'
-
-const root = join(dirname(fileURLToPath(import.meta.url)), '..')
 /** Alternating pairs per model (TRIBUTARY_COMPARE_PAIRS overrides). */
 const PAIRS = Math.max(1, Number(process.env.TRIBUTARY_COMPARE_PAIRS) || 8)
 
@@ -70,13 +66,9 @@ function comparePaired(name: string, old: () => void, current: () => void): void
 async function main(): Promise<void> {
   const revision = process.argv[2]
   if (!revision) throw new Error('Name the revision to compare with, e.g. npm run bench:compare -- HEAD~3')
-  const folder = mkdtempSync(join(tmpdir(), 'tributary-compare-'))
-  const worktree = join(folder, 'checkout')
-  execFileSync('git', ['worktree', 'add', '--detach', worktree, revision], { cwd: root, stdio: 'ignore' })
-  try {
-    symlinkSync(join(root, 'node_modules'), join(worktree, 'node_modules'))
+  await withRevisionCheckout(revision, async (worktree) => {
     const old = await enginesAt(worktree)
-    const current = await enginesAt(root)
+    const current = await enginesAt(checkoutRoot)
     console.log(`Comparing the simulation engine of this checkout with ${revision} (${PAIRS} alternating pairs per model, CPU time)`)
     const frequency = ALLELE_FREQUENCY_BENCH_PARAMS
     const block = { seed: 1, firstReplicate: 0, replicates: ALLELE_FREQUENCY_BENCH_REPLICATES }
@@ -84,10 +76,7 @@ async function main(): Promise<void> {
     const rescue = rescueParams(500, 2000, 200, 100, 0)
     let replicate = 0
     comparePaired('individual-based model', () => old.rescue(rescue, { seed: 7, firstReplicate: replicate, replicates: 1 }), () => current.rescue(rescue, { seed: 7, firstReplicate: replicate++, replicates: 1 }))
-  } finally {
-    execFileSync('git', ['worktree', 'remove', '--force', worktree], { cwd: root, stdio: 'ignore' })
-    rmSync(folder, { recursive: true, force: true })
-  }
+  })
 }
 
 await main()

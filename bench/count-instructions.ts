@@ -17,13 +17,10 @@
  * off (both runs then translate the same files); the difference divided by 2R is the cost of
  * one replicate without start-up and module loading. Needs valgrind (Debian package `valgrind`).
  */
-import { execFileSync, spawnSync } from 'node:child_process'
-import { mkdtempSync, rmSync, symlinkSync } from 'node:fs'
-import { tmpdir } from 'node:os'
-import { dirname, join } from 'node:path'
-import { fileURLToPath } from 'node:url'
+import { spawnSync } from 'node:child_process'
+import { join } from 'node:path'
+import { checkoutRoot as root, withRevisionCheckout } from './revision-checkout'
 
-const root = join(dirname(fileURLToPath(import.meta.url)), '..')
 const probe = join(root, 'bench', 'instructions-probe.ts')
 const MODELS: [name: string, replicates: number][] = [['allele-frequency', 20_000], ['individual-based', 1]]
 
@@ -42,24 +39,17 @@ function perReplicate(engineRoot: string, model: string, replicates: number): nu
   return (instructions(engineRoot, model, 3 * replicates) - instructions(engineRoot, model, replicates)) / (2 * replicates)
 }
 
-function main(): void {
+async function main(): Promise<void> {
   const revision = process.argv[2]
   if (!revision) throw new Error('Name the revision to compare with, e.g. npm run bench:instructions -- HEAD~3')
-  const folder = mkdtempSync(join(tmpdir(), 'tributary-instructions-'))
-  const worktree = join(folder, 'checkout')
-  execFileSync('git', ['worktree', 'add', '--detach', worktree, revision], { cwd: root, stdio: 'ignore' })
-  try {
-    symlinkSync(join(root, 'node_modules'), join(worktree, 'node_modules'))
+  await withRevisionCheckout(revision, (worktree) => {
     console.log(`Instructions per replicate (valgrind), ${revision} against this checkout`)
     for (const [model, replicates] of MODELS) {
       const old = perReplicate(worktree, model, replicates)
       const current = perReplicate(root, model, replicates)
       console.log(`${model}: ${revision} ${(old / 1e6).toFixed(3)} M, this checkout ${(current / 1e6).toFixed(3)} M; old / new ${(old / current).toFixed(3)}×`)
     }
-  } finally {
-    execFileSync('git', ['worktree', 'remove', '--force', worktree], { cwd: root, stdio: 'ignore' })
-    rmSync(folder, { recursive: true, force: true })
-  }
+  })
 }
 
-main()
+await main()
