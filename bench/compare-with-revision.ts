@@ -23,6 +23,7 @@ import { join } from 'node:path'
 import { pathToFileURL } from 'node:url'
 import type { runEstablishmentReplicates as RunEstablishment } from '../shared/genetics/simulate/establishment'
 import type { runRescueReplicates as RunRescue } from '../shared/genetics/simulate/rescue'
+import { quantileOfSorted } from '../shared/genetics/simulate/summary/quantiles'
 import { checkoutRoot, withRevisionCheckout } from './revision-checkout'
 import { ALLELE_FREQUENCY_BENCH_PARAMS, ALLELE_FREQUENCY_BENCH_REPLICATES, rescueParams } from './simulate.bench'
 /** Alternating pairs per model (TRIBUTARY_COMPARE_PAIRS overrides). */
@@ -58,8 +59,7 @@ function comparePaired(name: string, old: () => void, current: () => void): void
     ratios.push(oldTime / currentTime)
   }
   // The median pair is less moved than the sums by a run that another tenant of the machine slowed down.
-  const sorted = [...ratios].sort((a, b) => a - b)
-  const median = PAIRS % 2 === 1 ? sorted[(PAIRS - 1) / 2] ?? Number.NaN : ((sorted[PAIRS / 2 - 1] ?? Number.NaN) + (sorted[PAIRS / 2] ?? Number.NaN)) / 2
+  const median = quantileOfSorted(Float64Array.from(ratios).sort(), 0.5) ?? Number.NaN
   console.log(`${name}: old ${(oldTotal / PAIRS).toFixed(3)} s, this checkout ${(currentTotal / PAIRS).toFixed(3)} s CPU per run; old / new per pair ${ratios.map(ratio => ratio.toFixed(2)).join(' ')}; overall ${(oldTotal / currentTotal).toFixed(3)}×, median pair ${median.toFixed(3)}×`)
 }
 
