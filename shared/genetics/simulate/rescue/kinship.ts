@@ -7,10 +7,11 @@
  * self-kinship f(x, x) = ½·(1 + F_x) with inbreeding F_x = f(m_x, f_x).
  *
  * Parents are numbered 0…P−1 for residents, whose kinship is `parentKinship`,
- * and P, P+1, … for immigrants from the source, which are treated as
- * founders: unrelated to everyone and non-inbred (self-kinship ½), the
- * studbook convention for wild-caught animals and the assumption of the
- * island-model recurrence (SCIENCE.md §4.2).
+ * and P, P+1, … for founders — immigrants from the source, translocated
+ * animals and the phase's first generation (see `Pedigree`) — unrelated to
+ * everyone and non-inbred (self-kinship ½), the studbook convention for
+ * wild-caught animals and the assumption of the island-model recurrence
+ * (SCIENCE.md §4.2).
  *
  * The upper triangle is computed four rows at a time: for each later
  * offspring y its parents' numbers are read once and serve the four rows,

@@ -80,7 +80,8 @@ export function withFounders(pedigree: Pedigree, count: number): Pedigree {
  */
 export function offspringPedigree(pedigree: Pedigree, mothers: Int32Array, fathers: Int32Array, immigrants: number, reuse?: Float32Array): Pedigree {
   const size = pedigree.mothers.length
-  // Residents who bred, in order of place, then the immigrants.
+  // Residents who bred, in order of place, then the immigrants: every parent
+  // is first marked 0 (−1: did not breed), then numbered in one pass in order.
   const member = new Int32Array(size + immigrants).fill(-1)
   for (let child = 0; child < mothers.length; child++) {
     member[mothers[child] as number] = 0 // parent numbers < size + immigrants by contract
