@@ -17,7 +17,8 @@ if (typeof Object.groupBy !== 'function') {
 
 export default withNuxt(
   {
-    ignores: ['.output/**', '.nuxt/**', 'node_modules/**', 'coverage/**', 'tests/fixtures/**/*.py'],
+    // kernels/ is AssemblyScript (compiled by scripts/build-kernels.mjs), not TypeScript.
+    ignores: ['.output/**', '.nuxt/**', 'node_modules/**', 'coverage/**', 'tests/fixtures/**/*.py', 'kernels/**'],
   },
   {
     files: ['shared/**/*.ts'],

@@ -5,7 +5,8 @@
  * first committed (commit 13b090c, "Simulation engine: seeded allele-frequency and
  * individual-based rescue models …", engine version simulate-1.0.0), before the speed-ups of
  * the allele-frequency model (setup-array BTRD, cached acceptance tables, quiet-stretch loop,
- * jumps by table), which must not change any draw.
+ * jumps by table, the WebAssembly drift-step kernel running replicates side by side), which must
+ * not change any draw.
  *
  * If this test fails after a change under shared/genetics/simulate, the change alters results
  * for a given seed: either undo that, or bump SIMULATION_ENGINE_VERSION (so stored runs say
@@ -38,6 +39,20 @@ const cases: [EstablishmentParams, number][] = [
   [{ census: 30000, effectiveSize: 40000, s: 0.002, h: 0.5, sourceFrequency: 0.5, migrantsPerEvent: 100, eventInterval: 1, events: 1, generations: 2000 }, 200],
 ]
 
+/** values[0] for `every` generations, then values[1], … cycling, over `length` generations. */
+const cycle = (values: number[], every: number, length: number): number[] => Array.from({ length }, (_, g) => values[Math.floor(g / every) % values.length] as number)
+
+/**
+ * Ne changing every 40 generations without migration: short quiet stretches on four drift-step
+ * kernels at once, replicates moving between them on the kernels' lanes.
+ */
+const SCHEDULE_CASE: EstablishmentParams = {
+  census: cycle([300, 120, 80, 200], 40, 800), effectiveSize: cycle([150, 60, 40, 100], 40, 800),
+  s: 0.04, h: 0.3, sourceFrequency: 0.4, migrantsPerEvent: 4, eventInterval: 100, events: 4, generations: 800,
+}
+/** Seeds 1 and 987654321, 3000 replicates, computed with the engine at commit c95b281 (which gives the digests above too). */
+const SCHEDULE_DIGESTS = ['c829e2e1f9734422', '8c506239b3e9c991']
+
 /** Digests for seeds 1 and 987654321 of each case, in order (engine at commit 13b090c). */
 const ESTABLISHMENT_DIGESTS = [
   '9ee1c794e705e56d', '664069ea11ccc45a',
@@ -54,6 +69,10 @@ describe(`engine ${SIMULATION_ENGINE_VERSION}: same inputs and seed, same result
   it('the allele-frequency model gives the recorded results', () => {
     const digests = cases.flatMap(([params, replicates]) => [1, 987654321].map(seed => digest(simulateEstablishment(params, { seed, replicates }))))
     expect(digests).toEqual(ESTABLISHMENT_DIGESTS)
+  }, 60_000)
+
+  it('the allele-frequency model gives the recorded results with a changing Ne and no migration', () => {
+    expect([1, 987654321].map(seed => digest(simulateEstablishment(SCHEDULE_CASE, { seed, replicates: 3000 })))).toEqual(SCHEDULE_DIGESTS)
   }, 60_000)
 
   it('the individual-based model gives the recorded result', () => {

@@ -2,10 +2,13 @@ import { requireInteger } from '../../validate'
 import { binomialDraw } from '../random/binomial'
 import { ReplicateStreams } from '../random/streams'
 import type { RandomStream } from '../random/streams'
+import { LANE_COUNT, LANE_GENERATION, LANE_GRID_INDEX, LANE_RECORDED, LANE_RECORDS, LANE_WORDS } from '../kernels/drift-step-kernel'
 import { DriftStepCache, MAXIMUM_CACHED_GENES } from './drift-step-cache'
 import { establishmentPlan } from './establishment-plan'
 import type { EstablishmentPlan } from './establishment-plan'
 import { frequencyAfterSelection } from './selection-step'
+import { runReplicatesOnLanes } from './replicate-lanes'
+import type { LaneReplicate } from './replicate-lanes'
 import { frequencyBin, TRAJECTORY_BINS, trajectoryGrid } from './trajectory-grid'
 import type { EstablishmentParams, EstablishmentPartial } from './types'
 
@@ -35,8 +38,8 @@ interface BlockTally {
   lostFrom: Int32Array
   /** fixedFrom[j]: replicates fixed before grid point j was recorded. */
   fixedFrom: Int32Array
-  establishmentTimes: number[]
-  lossTimes: number[]
+  /** times[r]: generations from the time origin to replicate r's fixation or loss. */
+  times: Float64Array
   /** Drift-step caches per number of sampled genes (n ≤ MAXIMUM_CACHED_GENES), built on demand. */
   caches: Map<number, DriftStepCache>
   /**
@@ -98,21 +101,36 @@ export function runEstablishmentBlock(fn: string, params: EstablishmentParams, b
     counts: new Int32Array(gridLength * (TRAJECTORY_BINS + 1)),
     lostFrom: new Int32Array(gridLength + 1),
     fixedFrom: new Int32Array(gridLength + 1),
-    establishmentTimes: [],
-    lossTimes: [],
+    times: new Float64Array(block.replicates),
     caches: new Map(),
     quietUntil: quietStretches(plan),
   }
   const streams = new ReplicateStreams(block.seed, block.firstReplicate)
   const progressStep = Math.max(1, Math.floor(block.replicates / 100))
+  const outcomes = new Uint8Array(block.replicates)
+  let completed = 0
+  runReplicatesOnLanes(
+    block.replicates,
+    (replicate, lane) => replicateRun(tally, streams.next(), replicate, lane),
+    (replicate, outcome) => {
+      outcomes[replicate] = outcome
+      completed++
+      if (block.onProgress && (completed % progressStep === 0 || completed === block.replicates)) {
+        block.onProgress(completed, block.replicates)
+      }
+    },
+  )
   let established = 0
   let lost = 0
+  const establishmentTimes: number[] = []
+  const lossTimes: number[] = []
   for (let replicate = 0; replicate < block.replicates; replicate++) {
-    const outcome = runOneReplicate(tally, streams.next())
-    if (outcome === ESTABLISHED) established++
-    else if (outcome === LOST) lost++
-    if (block.onProgress && ((replicate + 1) % progressStep === 0 || replicate + 1 === block.replicates)) {
-      block.onProgress(replicate + 1, block.replicates)
+    if (outcomes[replicate] === ESTABLISHED) {
+      established++
+      establishmentTimes.push(tally.times[replicate] as number) // replicate < length
+    } else if (outcomes[replicate] === LOST) {
+      lost++
+      lossTimes.push(tally.times[replicate] as number)
     }
   }
   // Absorbed replicates contribute bin 0 or bin 200 to every later grid point.
@@ -131,8 +149,8 @@ export function runEstablishmentBlock(fn: string, params: EstablishmentParams, b
     established,
     lost,
     unresolved: block.replicates - established - lost,
-    establishmentTimes: tally.establishmentTimes,
-    lossTimes: tally.lossTimes,
+    establishmentTimes,
+    lossTimes,
     trajectoryGenerations: gridGenerations,
     trajectoryCounts: Array.from(tally.counts),
   }
@@ -143,7 +161,7 @@ export function runEstablishmentBlock(fn: string, params: EstablishmentParams, b
  * genes), continuing migration, recording, selection, Wright–Fisher drift,
  * until fixation, definitive loss or the horizon.
  */
-function runOneReplicate(tally: BlockTally, random: RandomStream): number {
+function* replicateRun(tally: BlockTally, random: RandomStream, replicate: number, lane: number): LaneReplicate {
   const { plan, grid, counts, quietUntil } = tally
   const { generations, census, sampledGenes, eventAt, s, h, sourceFrequency, introducedCopies, migrantsPerEvent, migrationRate, lastInputGeneration } = plan
   const stayWeight = 1 - migrationRate
@@ -164,23 +182,32 @@ function runOneReplicate(tally: BlockTally, random: RandomStream): number {
     // (The same steps as the general loop below, in the same order.)
     if (migrationRate === 0 && genesOfCopies > 0 && copies > 0 && copies < genesOfCopies && cache !== undefined
       && cache.genes === genesOfCopies && eventAt[generation] !== 1 && sampledGenes[generation] === genesOfCopies) {
+      // The generations of the stretch run on a lane of the WebAssembly kernel, which records
+      // the count at grid points and continues this replicate's stream (see replicate-lanes.ts).
       const genes = genesOfCopies
       const end = quietUntil[generation] ?? generations
-      for (; generation < end; generation++) {
-        if (generation === nextGrid) {
-          const index = gridIndex * (TRAJECTORY_BINS + 1) + frequencyBin(copies / genes)
+      const kernel = cache.kernel
+      const lanes = kernel.lanes
+      const at = lane * LANE_WORDS
+      kernel.startLane(lane, random, copies, generation, end, gridIndex)
+      for (;;) {
+        yield kernel
+        const recorded = lanes[at + LANE_RECORDED] as number // lane words exist
+        for (let record = 0; record < recorded; record++) {
+          const index = (gridIndex + record) * (TRAJECTORY_BINS + 1) + frequencyBin((lanes[at + LANE_RECORDS + record] as number) / genes)
           counts[index] = (counts[index] ?? 0) + 1
-          gridIndex++
-          nextGrid = gridIndex < gridLength ? grid[gridIndex] ?? -1 : -1
         }
-        copies = cache.draw(random, copies)
-        if (copies === genes) return finishFixed(tally, generation + 1, gridIndex)
-        if (copies === 0) {
-          if (generation + 1 > lastInputGeneration) return finishLost(tally, generation + 1, gridIndex)
-          generation++
-          break
-        }
+        copies = lanes[at + LANE_COUNT] as number
+        generation = lanes[at + LANE_GENERATION] as number
+        gridIndex = lanes[at + LANE_GRID_INDEX] as number
+        if (copies === genes || copies === 0 || generation >= end) break
+        cache.prepare(copies) // the lane may have stopped before a count not filled yet
+        kernel.resumeLane(lane)
       }
+      nextGrid = gridIndex < gridLength ? grid[gridIndex] ?? -1 : -1
+      random = kernel.laneStream(lane)
+      if (copies === genes) return finishFixed(tally, replicate, generation, gridIndex)
+      if (copies === 0 && generation > lastInputGeneration) return finishLost(tally, replicate, generation, gridIndex)
       frequency = copies / genes
       continue
     }
@@ -203,11 +230,11 @@ function runOneReplicate(tally: BlockTally, random: RandomStream): number {
       nextGrid = gridIndex < gridLength ? grid[gridIndex] ?? -1 : -1
     }
     if (frequency === 0) {
-      if (generation >= lastInputGeneration) return finishLost(tally, generation, gridIndex)
+      if (generation >= lastInputGeneration) return finishLost(tally, replicate, generation, gridIndex)
       generation++
       continue // nothing can happen until the next input
     }
-    if (frequency >= 1) return finishFixed(tally, generation, gridIndex)
+    if (frequency >= 1) return finishFixed(tally, replicate, generation, gridIndex)
     const genes = sampledGenes[generation] ?? 1
     if (genes === genesOfCopies && genes <= MAXIMUM_CACHED_GENES) {
       if (cache === undefined || cache.genes !== genes) cache = cacheFor(tally, genes)
@@ -217,9 +244,9 @@ function runOneReplicate(tally: BlockTally, random: RandomStream): number {
       if (genes <= MAXIMUM_CACHED_GENES && (cache === undefined || cache.genes !== genes)) cache = cacheFor(tally, genes)
     }
     genesOfCopies = genes
-    if (copies === genes) return finishFixed(tally, generation + 1, gridIndex)
+    if (copies === genes) return finishFixed(tally, replicate, generation + 1, gridIndex)
     frequency = copies / genes
-    if (copies === 0 && generation + 1 > lastInputGeneration) return finishLost(tally, generation + 1, gridIndex)
+    if (copies === 0 && generation + 1 > lastInputGeneration) return finishLost(tally, replicate, generation + 1, gridIndex)
     generation++
   }
   if (generations === nextGrid) {
@@ -232,20 +259,20 @@ function runOneReplicate(tally: BlockTally, random: RandomStream): number {
 function cacheFor(tally: BlockTally, genes: number): DriftStepCache {
   let cache = tally.caches.get(genes)
   if (!cache) {
-    cache = new DriftStepCache(genes, tally.plan.s, tally.plan.h)
+    cache = new DriftStepCache(genes, tally.plan.s, tally.plan.h, tally.grid)
     tally.caches.set(genes, cache)
   }
   return cache
 }
 
-function finishFixed(tally: BlockTally, generation: number, gridIndex: number): number {
+function finishFixed(tally: BlockTally, replicate: number, generation: number, gridIndex: number): number {
   tally.fixedFrom[gridIndex] = (tally.fixedFrom[gridIndex] ?? 0) + 1
-  tally.establishmentTimes.push(generation - tally.plan.timeOrigin)
+  tally.times[replicate] = generation - tally.plan.timeOrigin
   return ESTABLISHED
 }
 
-function finishLost(tally: BlockTally, generation: number, gridIndex: number): number {
+function finishLost(tally: BlockTally, replicate: number, generation: number, gridIndex: number): number {
   tally.lostFrom[gridIndex] = (tally.lostFrom[gridIndex] ?? 0) + 1
-  tally.lossTimes.push(generation - tally.plan.timeOrigin)
+  tally.times[replicate] = generation - tally.plan.timeOrigin
   return LOST
 }
