@@ -2,6 +2,7 @@ import { xoroshiro128plusFromState } from 'pure-rand/generator/xoroshiro128plus'
 import type { JumpableRandomGenerator } from 'pure-rand/types/JumpableRandomGenerator'
 import type { RandomStream } from '../random/streams'
 import { driftStepWasm } from './drift-step-wasm'
+import { kernelModule } from './instantiate'
 
 /** Doubles per count in the header area: state, binomialSetup's 7 entries, 0.86·v_r, 2a, table length, spare. */
 export const KERNEL_HEADER_STRIDE = 12
@@ -28,19 +29,6 @@ const LANE_STOP_AT = 10
 export const LANE_RUNNING = 1
 export const LANE_STOPPED = 2
 const PAGE_BYTES = 65_536
-
-let compiledModule: WebAssembly.Module | undefined
-
-/** The compiled kernel, decoded and compiled once per thread. */
-function driftStepModule(): WebAssembly.Module {
-  if (!compiledModule) {
-    const text = atob(driftStepWasm)
-    const bytes = new Uint8Array(text.length)
-    for (let i = 0; i < text.length; i++) bytes[i] = text.charCodeAt(i)
-    compiledModule = new WebAssembly.Module(bytes)
-  }
-  return compiledModule
-}
 
 type RunLanesExport = (laneCount: number, genes: number, headerBase: number, tableBase: number, gridBase: number, gridLength: number) => void
 
@@ -89,7 +77,7 @@ export class DriftStepKernel {
     this.tableBase = this.headerBase + counts * KERNEL_HEADER_STRIDE * 8
     const bytes = this.tableBase + counts * KERNEL_TABLE_SLOT * 8
     const memory = new WebAssembly.Memory({ initial: Math.ceil(bytes / PAGE_BYTES) })
-    const instance = new WebAssembly.Instance(driftStepModule(), { env: { memory } })
+    const instance = new WebAssembly.Instance(kernelModule(driftStepWasm), { env: { memory } })
     this.runLanesExport = instance.exports.runLanes as RunLanesExport
     this.lanes = new Int32Array(memory.buffer, 0, KERNEL_LANES * LANE_WORDS)
     new Int32Array(memory.buffer, this.gridBase, grid.length).set(grid)

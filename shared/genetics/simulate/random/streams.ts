@@ -3,6 +3,7 @@ import type { RandomGenerator } from 'pure-rand/types/RandomGenerator'
 import type { JumpableRandomGenerator } from 'pure-rand/types/JumpableRandomGenerator'
 import { requireInteger } from '../../validate'
 import { jumpedState } from './jump-table'
+import { WordStream } from './word-stream'
 
 /**
  * The seeded generator every stochastic engine function takes as a parameter.
@@ -90,6 +91,9 @@ export class ReplicateStreams {
  * instead (the usual "seed a child from its parent" scheme); overlap between a
  * child and any other stream in a run has probability of order 2⁻⁶⁴.
  *
+ * The child is a `WordStream` (pure-rand's xoroshiro128+ with relocatable
+ * state words), so that the rescue model's genome kernel can draw from it.
+ *
  * @param parent - generator to draw the child's state from (advanced by 4 draws)
  * @returns a new xoroshiro128+ generator
  * @example spawnStream(replicateStream(1, 0)).next() // deterministic given the seed
@@ -101,5 +105,5 @@ export function spawnStream(parent: RandomStream): JumpableRandomGenerator {
   const fourth = parent.next()
   // xoroshiro128+ must not start from the all-zero state (it would stay zero).
   const allZero = (first | second | third | fourth) === 0
-  return xoroshiro128plusFromState([allZero ? 1 : first, second, third, fourth])
+  return new WordStream([allZero ? 1 : first, second, third, fourth])
 }

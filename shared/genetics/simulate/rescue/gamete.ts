@@ -4,12 +4,18 @@ import { uniform01, uniformIndex } from '../random/uniform'
 import type { GenomeArchitecture } from './architecture'
 import { writeChromosomeMask } from './linkage'
 import type { Population } from './population'
+import type { GenomeKernel } from '../kernels/genome-kernel'
 
 /** Reusable buffers for gamete formation under a genetic map. */
 export interface GameteScratch {
   markerMask: Int32Array
   loadMask: Int32Array
   crossovers: Float64Array
+  /**
+   * Set while `reproduce` keeps the haplotypes in this kernel's memory and the stream in its
+   * state words (free recombination only): the gamete words are then written there.
+   */
+  kernel: GenomeKernel | null
 }
 
 /**
@@ -23,6 +29,7 @@ export function gameteScratch(architecture: GenomeArchitecture): GameteScratch {
     markerMask: new Int32Array(architecture.markerWords),
     loadMask: new Int32Array(architecture.loadWords),
     crossovers: new Float64Array(64),
+    kernel: null,
   }
 }
 
@@ -37,7 +44,8 @@ export function gameteScratch(architecture: GenomeArchitecture): GameteScratch {
  * Poisson(U) new harmful mutations hit uniformly chosen load loci (a hit on
  * a locus already carrying the harmful allele changes nothing; no back
  * mutation), and the adaptive allele is taken from a random parental
- * haplotype (unlinked).
+ * haplotype (unlinked). With `scratch.kernel` set, the word loops run in the
+ * genome kernel, which draws the same words from the same stream.
  *
  * @param parent - population of the parent
  * @param parentIndex - the parent's index
@@ -67,6 +75,16 @@ export function writeGamete(
   const firstMarker = 2 * parentIndex * markerWords
   const secondMarker = firstMarker + markerWords
   const markerOut = (2 * childIndex + slot) * markerWords
+  const kernel = scratch.kernel
+  if (kernel !== null) {
+    kernel.gameteWords(markerFrom.byteOffset + 4 * firstMarker, markerFrom.byteOffset + 4 * secondMarker, markerTo.byteOffset + 4 * markerOut, markerWords)
+    if (loadWords > 0) {
+      const firstLoad = 2 * parentIndex * loadWords
+      kernel.gameteWords(parent.load.byteOffset + 4 * firstLoad, parent.load.byteOffset + 4 * (firstLoad + loadWords), child.load.byteOffset + 4 * (2 * childIndex + slot) * loadWords, loadWords)
+    }
+    finishGamete(parent, parentIndex, child, childIndex, slot, architecture, random)
+    return
+  }
   // Hot loop: every index below lies inside a haplotype of the given
   // individuals by construction, hence the `as number` reads.
   for (let word = 0; word < markerWords; word++) {
@@ -91,16 +109,27 @@ export function writeGamete(
         ? a
         : a ^ (difference & (loadLinked ? scratch.loadMask[word] as number : random.next()))
     }
-    if (architecture.mutationRate > 0) {
-      const mutations = samplePoisson(random, architecture.mutationRate)
-      for (let mutation = 0; mutation < mutations; mutation++) {
-        const locus = uniformIndex(random, architecture.loadLoci)
-        const index = loadOut + (locus >> 5)
-        loadTo[index] = (loadTo[index] as number) | (1 << (locus & 31))
-      }
+  }
+  finishGamete(parent, parentIndex, child, childIndex, slot, architecture, random)
+}
+
+/**
+ * The rest of a gamete once its words are written: Poisson(U) new harmful
+ * mutations at uniform load loci, then the adaptive allele from a random
+ * parental haplotype (see `writeGamete`).
+ */
+function finishGamete(parent: Population, parentIndex: number, child: Population, childIndex: number, slot: number, architecture: GenomeArchitecture, random: RandomStream): void {
+  const loadWords = architecture.loadWords
+  if (loadWords > 0 && architecture.mutationRate > 0) {
+    const loadTo = child.load
+    const loadOut = (2 * childIndex + slot) * loadWords
+    const mutations = samplePoisson(random, architecture.mutationRate)
+    for (let mutation = 0; mutation < mutations; mutation++) {
+      const locus = uniformIndex(random, architecture.loadLoci)
+      const index = loadOut + (locus >> 5)
+      loadTo[index] = (loadTo[index] as number) | (1 << (locus & 31))
     }
   }
-
   child.adaptive[2 * childIndex + slot] = parent.adaptive[2 * parentIndex + (random.next() & 1)] as number
 }
 

@@ -1,4 +1,6 @@
 import type { RandomStream } from '../random/streams'
+import { WordStream } from '../random/word-stream'
+import { GenomeKernel } from '../kernels/genome-kernel'
 import { uniform01, uniformIndex } from '../random/uniform'
 import { WeightedSampler } from '../random/weighted-sampler'
 import type { GenomeArchitecture } from './architecture'
@@ -21,16 +23,18 @@ export interface ReproductionScratch {
   gamete: GameteScratch
   /** Two buffers for the parents' kinship used in turn (the breeding generation's pedigree holds one, the offspring's gets the other). */
   kinship: [Float32Array, Float32Array]
+  /** The genome kernel used for this lineage's gametes (see `reproduce`). */
+  genome: GenomeKernel
 }
 
 /**
  * Fresh reusable buffers for one lineage of generations.
  *
  * @param gamete - gamete buffers
- * @returns scratch with empty kinship buffers
+ * @returns scratch with empty kinship buffers and a genome kernel
  */
 export function reproductionScratch(gamete: GameteScratch): ReproductionScratch {
-  return { gamete, kinship: [new Float32Array(0), new Float32Array(0)] }
+  return { gamete, kinship: [new Float32Array(0), new Float32Array(0)], genome: new GenomeKernel() }
 }
 
 /**
@@ -82,6 +86,16 @@ export function reproduce(
   }
   const trackKinship = parents.pedigree !== null
   const offspring = allocatePopulation(offspringCount, architecture)
+  // Under free recombination with a relocatable stream, the gamete words are written by the genome
+  // kernel: parents, immigrant source and offspring haplotypes are staged in its memory and the
+  // stream's state moves into its state words for the loop (same draws, same order).
+  const staged = architecture.markerLayout === null && architecture.loadLayout === null && random instanceof WordStream
+    ? stageInKernel(scratch.genome, parents, immigrants?.source ?? null, offspring, random)
+    : null
+  const breeding = staged ? staged.parents : parents
+  const donors = staged?.source ?? immigrants?.source ?? null
+  const written = staged ? staged.offspring : offspring
+  scratch.gamete.kernel = staged ? scratch.genome : null
   const mothers = new Int32Array(offspringCount)
   const fathers = new Int32Array(offspringCount)
   // Immigrants get parent numbers P, P+1, … in order of first use (kinship only).
@@ -94,19 +108,29 @@ export function reproduce(
     return assigned
   }
 
-  for (let child = 0; child < offspringCount; child++) {
-    for (let slot = 0; slot < 2; slot++) {
-      const pool = slot === 0 ? immigrantFemales : immigrantMales
-      if (pool.length > 0 && immigrants && uniform01(random) < immigrants.rate) {
-        const sourceIndex = pool[uniformIndex(random, pool.length)] as number // index < pool.length
-        writeGamete(immigrants.source, sourceIndex, offspring, child, slot, architecture, random, scratch.gamete)
-        if (trackKinship) (slot === 0 ? mothers : fathers)[child] = numberImmigrant(sourceIndex)
-      } else {
-        const parent = slot === 0 ? femaleSampler.draw(random) : maleSampler.draw(random)
-        writeGamete(parents, parent, offspring, child, slot, architecture, random, scratch.gamete)
-        if (trackKinship) (slot === 0 ? mothers : fathers)[child] = parent
+  try {
+    for (let child = 0; child < offspringCount; child++) {
+      for (let slot = 0; slot < 2; slot++) {
+        const pool = slot === 0 ? immigrantFemales : immigrantMales
+        if (pool.length > 0 && immigrants && donors && uniform01(random) < immigrants.rate) {
+          const sourceIndex = pool[uniformIndex(random, pool.length)] as number // index < pool.length
+          writeGamete(donors, sourceIndex, written, child, slot, architecture, random, scratch.gamete)
+          if (trackKinship) (slot === 0 ? mothers : fathers)[child] = numberImmigrant(sourceIndex)
+        } else {
+          const parent = slot === 0 ? femaleSampler.draw(random) : maleSampler.draw(random)
+          writeGamete(breeding, parent, written, child, slot, architecture, random, scratch.gamete)
+          if (trackKinship) (slot === 0 ? mothers : fathers)[child] = parent
+        }
       }
     }
+  } finally {
+    // The stream goes back to its own words whatever happens, so that it stays usable.
+    staged?.stream.returnHome()
+    scratch.gamete.kernel = null
+  }
+  if (staged) {
+    offspring.markers.set(staged.offspring.markers)
+    offspring.load.set(staged.offspring.load)
   }
   if (parents.pedigree) {
     const [first, second] = scratch.kinship
@@ -133,4 +157,32 @@ function samplerFor(indices: number[], fitness: Float64Array, shape: number, ran
   if (!(total > 0)) return null
   const sampler = new WeightedSampler(weights)
   return { draw: generator => indices[sampler.sample(generator)] as number } // sample < indices.length
+}
+
+/** Populations whose haplotype arrays are views of a genome kernel's memory. */
+interface StagedPopulations {
+  parents: Population
+  source: Population | null
+  offspring: Population
+  /** The stream, relocated into the kernel's state words. */
+  stream: WordStream
+}
+
+/**
+ * Copies the parents' and the source's haplotypes into the kernel's memory, takes room for the
+ * offspring's, and moves the stream into the kernel's state words. The returned populations share
+ * everything else with the originals; the caller copies the offspring's haplotypes out and calls
+ * `random.returnHome()` when the gametes are written.
+ */
+function stageInKernel(kernel: GenomeKernel, parents: Population, source: Population | null, offspring: Population, random: WordStream): StagedPopulations {
+  const words = (population: Population | null): number => population ? population.markers.length + population.load.length : 0
+  kernel.reserve(words(parents) + words(source) + words(offspring))
+  const stage = (population: Population, copy: boolean): Population => ({
+    ...population,
+    markers: kernel.words(population.markers.length, copy ? population.markers : undefined),
+    load: kernel.words(population.load.length, copy ? population.load : undefined),
+  })
+  const staged = { parents: stage(parents, true), source: source ? stage(source, true) : null, offspring: stage(offspring, false), stream: random }
+  random.relocate(kernel.state())
+  return staged
 }

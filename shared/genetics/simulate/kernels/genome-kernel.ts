@@ -1,0 +1,62 @@
+import { genomeWasm } from './genome-wasm'
+import { kernelModule } from './instantiate'
+
+/** First byte of the haplotype arrays (bytes 0–15 hold the generator state). */
+const ARRAYS_BYTE = 16
+const PAGE_BYTES = 65_536
+
+type GameteWordsExport = (first: number, second: number, out: number, words: number) => void
+
+/**
+ * The WebAssembly genome kernel (kernels/genome.ts): gamete words under free recombination,
+ * drawing from a `WordStream` relocated into its state words.
+ *
+ * Why: a gamete of the rescue model takes one random word per heterozygous 32-locus word
+ * (about 70 for 2,200 loci); in TypeScript each costs a generator step on 32-bit halves, in
+ * the kernel a step on two 64-bit words. The draws are the same, in the same order.
+ *
+ * Use: `reserve` room, copy the parents' haplotypes into `words(…)` views, relocate the stream
+ * into `state`, write gametes with `gameteWords` at the views' byte offsets, copy the children
+ * out. Growing the memory detaches every earlier view, so views are taken after `reserve`.
+ */
+export class GenomeKernel {
+  private readonly memory: WebAssembly.Memory
+  private readonly gameteWordsExport: GameteWordsExport
+  private nextFree = ARRAYS_BYTE
+
+  constructor() {
+    this.memory = new WebAssembly.Memory({ initial: 1 })
+    const instance = new WebAssembly.Instance(kernelModule(genomeWasm), { env: { memory: this.memory } })
+    this.gameteWordsExport = instance.exports.gameteWords as GameteWordsExport
+  }
+
+  /** Frees every array and makes room for `words` int32 words of arrays (views taken before are invalid). */
+  reserve(words: number): void {
+    this.nextFree = ARRAYS_BYTE
+    const needed = ARRAYS_BYTE + words * 4
+    const current = this.memory.buffer.byteLength
+    if (needed > current) this.memory.grow(Math.ceil((needed - current) / PAGE_BYTES))
+  }
+
+  /** The generator state words, where a `WordStream` is relocated while the kernel draws. */
+  state(): Int32Array {
+    return new Int32Array(this.memory.buffer, 0, 4)
+  }
+
+  /** The next `length` words of the reserved room, holding a copy of `from` if given. */
+  words(length: number, from?: Int32Array): Int32Array {
+    const view = new Int32Array(this.memory.buffer, this.nextFree, length)
+    this.nextFree += length * 4
+    if (this.nextFree > this.memory.buffer.byteLength) throw new RangeError('GenomeKernel: more words taken than reserved')
+    if (from) view.set(from)
+    return view
+  }
+
+  /**
+   * One haplotype of a gamete from haplotypes `first` and `second` into `out`, `count` words each
+   * (byte addresses in the kernel's memory, i.e. views' byteOffset).
+   */
+  gameteWords(first: number, second: number, out: number, count: number): void {
+    this.gameteWordsExport(first, second, out, count)
+  }
+}
