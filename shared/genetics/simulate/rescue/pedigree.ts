@@ -1,6 +1,12 @@
 import { kinshipOf, offspringKinship } from './kinship'
 
 /**
+ * Computes a generation's kinship from its parents' (`offspringKinship` or the kinship kernel's
+ * method of the same name, which gives the same values).
+ */
+export type KinshipWriter = (parentKinship: Float32Array, parentCount: number, mothers: Int32Array, fathers: Int32Array) => Float32Array
+
+/**
  * What pedigree kinship needs of one generation: the kinship among the
  * animals that were its parents, and each individual's mother and father.
  *
@@ -75,10 +81,10 @@ export function withFounders(pedigree: Pedigree, count: number): Pedigree {
  *   generation, or size + k for the k-th immigrant (numbered in order of first use)
  * @param fathers - the same for fathers
  * @param immigrants - number of distinct immigrant parents
- * @param reuse - buffer for the parents' kinship (see `offspringKinship`)
+ * @param writeKinship - how the members' kinship is computed (`offspringKinship` by default; `reproduce` passes its lineage's kinship kernel)
  * @returns the offspring's pedigree
  */
-export function offspringPedigree(pedigree: Pedigree, mothers: Int32Array, fathers: Int32Array, immigrants: number, reuse?: Float32Array): Pedigree {
+export function offspringPedigree(pedigree: Pedigree, mothers: Int32Array, fathers: Int32Array, immigrants: number, writeKinship: KinshipWriter = offspringKinship): Pedigree {
   const size = pedigree.mothers.length
   // Residents who bred, in order of place, then the immigrants: every parent
   // is first marked 0 (−1: did not breed), then numbered in one pass in order.
@@ -113,7 +119,7 @@ export function offspringPedigree(pedigree: Pedigree, mothers: Int32Array, fathe
     offspringFathers[child] = member[fathers[child] as number] as number
   }
   return {
-    parentKinship: offspringKinship(pedigree.parentKinship, pedigree.parentCount, memberMothers, memberFathers, reuse),
+    parentKinship: writeKinship(pedigree.parentKinship, pedigree.parentCount, memberMothers, memberFathers),
     parentCount: members,
     mothers: offspringMothers,
     fathers: offspringFathers,

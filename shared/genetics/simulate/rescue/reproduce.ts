@@ -1,6 +1,7 @@
 import type { RandomStream } from '../random/streams'
 import { WordStream } from '../random/word-stream'
 import { GenomeKernel } from '../kernels/genome-kernel'
+import { KinshipKernel } from '../kernels/kinship-kernel'
 import { uniform01, uniformIndex } from '../random/uniform'
 import { WeightedSampler } from '../random/weighted-sampler'
 import type { GenomeArchitecture } from './architecture'
@@ -21,8 +22,8 @@ export interface ImmigrantSupply {
 /** Buffers reused from generation to generation. */
 export interface ReproductionScratch {
   gamete: GameteScratch
-  /** Two buffers for the parents' kinship used in turn (the breeding generation's pedigree holds one, the offspring's gets the other). */
-  kinship: [Float32Array, Float32Array]
+  /** The kinship kernel whose two matrices this lineage's pedigrees use in turn (the breeding generation's pedigree holds one, the offspring's gets the other). */
+  kinship: KinshipKernel
   /** The genome kernel used for this lineage's gametes (see `reproduce`). */
   genome: GenomeKernel
 }
@@ -31,10 +32,10 @@ export interface ReproductionScratch {
  * Fresh reusable buffers for one lineage of generations.
  *
  * @param gamete - gamete buffers
- * @returns scratch with empty kinship buffers and a genome kernel
+ * @returns scratch with a kinship kernel and a genome kernel
  */
 export function reproductionScratch(gamete: GameteScratch): ReproductionScratch {
-  return { gamete, kinship: [new Float32Array(0), new Float32Array(0)], genome: new GenomeKernel() }
+  return { gamete, kinship: new KinshipKernel(), genome: new GenomeKernel() }
 }
 
 /**
@@ -133,13 +134,9 @@ export function reproduce(
     offspring.load.set(staged.offspring.load)
   }
   if (parents.pedigree) {
-    const [first, second] = scratch.kinship
-    const free = first.buffer === parents.pedigree.parentKinship.buffer ? second : first
-    // At most every parent and immigrant breeds.
-    const most = parents.size + immigrantNumber.size
-    const buffer = free.length >= most * most ? free : new Float32Array(Math.ceil(most * most * 1.25))
-    offspring.pedigree = offspringPedigree(parents.pedigree, mothers, fathers, immigrantNumber.size, buffer)
-    scratch.kinship = free === first ? [buffer, second] : [first, buffer]
+    const kinship = scratch.kinship
+    offspring.pedigree = offspringPedigree(parents.pedigree, mothers, fathers, immigrantNumber.size, (parentKinship, parentCount, memberMothers, memberFathers) =>
+      kinship.offspringKinship(parentKinship, parentCount, memberMothers, memberFathers))
   }
   return offspring
 }
