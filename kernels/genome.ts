@@ -17,7 +17,7 @@
  * One haplotype of a gamete: out[w] = a[w] where a[w] = b[w], else a[w] ^ ((a[w] ^ b[w]) & r)
  * with r the stream's next 32-bit output, for w = 0 … words − 1 (a, b, out: byte addresses).
  */
-export function gameteWords(first: usize, second: usize, out: usize, words: i32): void {
+function gameteWords(first: usize, second: usize, out: usize, words: i32): void {
   let state0 = load<i64>(0)
   let state1 = load<i64>(8)
   for (let word: usize = 0; word < <usize>words; word++) {
@@ -36,4 +36,14 @@ export function gameteWords(first: usize, second: usize, out: usize, words: i32)
   }
   store<i64>(0, state0)
   store<i64>(8, state1)
+}
+
+/**
+ * The marker and load words of one gamete: `gameteWords` for the markers (the parent's two
+ * haplotypes at markerFirst and markerFirst + 4·markerWords, written to markerOut), then for the
+ * load loci likewise — one call per gamete instead of two.
+ */
+export function gamete(markerFirst: usize, markerOut: usize, markerWords: i32, loadFirst: usize, loadOut: usize, loadWords: i32): void {
+  gameteWords(markerFirst, markerFirst + (<usize>markerWords << 2), markerOut, markerWords)
+  gameteWords(loadFirst, loadFirst + (<usize>loadWords << 2), loadOut, loadWords)
 }

@@ -11,7 +11,7 @@ import asc from 'assemblyscript/asc'
 const root = join(dirname(fileURLToPath(import.meta.url)), '..')
 
 /** Kernel source (kernels/NAME.ts) → generated module (shared/genetics/simulate/kernels/NAME-wasm.ts). */
-export const KERNELS = ['drift-step', 'genome', 'fitness', 'kinship']
+export const KERNELS = ['drift-step', 'genome', 'fitness', 'kinship', 'allele-counts']
 
 /** Compiler options: no garbage collector (the kernels allocate nothing), memory supplied by the caller. */
 const OPTIONS = ['--runtime', 'stub', '--importMemory', '--noExportMemory', '--optimizeLevel', '3', '--shrinkLevel', '0', '--use', 'abort=', '--noAssert']

@@ -5,7 +5,7 @@ import { kernelModule } from './instantiate'
 const ARRAYS_BYTE = 16
 const PAGE_BYTES = 65_536
 
-type GameteWordsExport = (first: number, second: number, out: number, words: number) => void
+type GameteExport = (markerFirst: number, markerOut: number, markerWords: number, loadFirst: number, loadOut: number, loadWords: number) => void
 
 /**
  * The WebAssembly genome kernel (kernels/genome.ts): gamete words under free recombination,
@@ -16,18 +16,18 @@ type GameteWordsExport = (first: number, second: number, out: number, words: num
  * the kernel a step on two 64-bit words. The draws are the same, in the same order.
  *
  * Use: `reserve` room, copy the parents' haplotypes into `words(…)` views, relocate the stream
- * into `state`, write gametes with `gameteWords` at the views' byte offsets, copy the children
+ * into `state`, write gametes with `gamete` at the views' byte offsets, copy the children
  * out. Growing the memory detaches every earlier view, so views are taken after `reserve`.
  */
 export class GenomeKernel {
   private readonly memory: WebAssembly.Memory
-  private readonly gameteWordsExport: GameteWordsExport
+  private readonly gameteExport: GameteExport
   private nextFree = ARRAYS_BYTE
 
   constructor() {
     this.memory = new WebAssembly.Memory({ initial: 1 })
     const instance = new WebAssembly.Instance(kernelModule(genomeWasm), { env: { memory: this.memory } })
-    this.gameteWordsExport = instance.exports.gameteWords as GameteWordsExport
+    this.gameteExport = instance.exports.gamete as GameteExport
   }
 
   /** Frees every array and makes room for `words` int32 words of arrays (views taken before are invalid). */
@@ -53,10 +53,11 @@ export class GenomeKernel {
   }
 
   /**
-   * One haplotype of a gamete from haplotypes `first` and `second` into `out`, `count` words each
-   * (byte addresses in the kernel's memory, i.e. views' byteOffset).
+   * The marker and load words of one gamete: each from the parent's two haplotypes, which start
+   * at markerFirst (markerWords words each, one after the other) and loadFirst, into markerOut
+   * and loadOut (byte addresses in the kernel's memory, i.e. views' byteOffset plus 4 per word).
    */
-  gameteWords(first: number, second: number, out: number, count: number): void {
-    this.gameteWordsExport(first, second, out, count)
+  gamete(markerFirst: number, markerOut: number, markerWords: number, loadFirst: number, loadOut: number, loadWords: number): void {
+    this.gameteExport(markerFirst, markerOut, markerWords, loadFirst, loadOut, loadWords)
   }
 }

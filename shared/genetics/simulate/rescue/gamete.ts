@@ -77,11 +77,9 @@ export function writeGamete(
   const markerOut = (2 * childIndex + slot) * markerWords
   const kernel = scratch.kernel
   if (kernel !== null) {
-    kernel.gameteWords(markerFrom.byteOffset + 4 * firstMarker, markerFrom.byteOffset + 4 * secondMarker, markerTo.byteOffset + 4 * markerOut, markerWords)
-    if (loadWords > 0) {
-      const firstLoad = 2 * parentIndex * loadWords
-      kernel.gameteWords(parent.load.byteOffset + 4 * firstLoad, parent.load.byteOffset + 4 * (firstLoad + loadWords), child.load.byteOffset + 4 * (2 * childIndex + slot) * loadWords, loadWords)
-    }
+    const firstLoad = 2 * parentIndex * loadWords
+    kernel.gamete(markerFrom.byteOffset + 4 * firstMarker, markerTo.byteOffset + 4 * markerOut, markerWords,
+      parent.load.byteOffset + 4 * firstLoad, child.load.byteOffset + 4 * (2 * childIndex + slot) * loadWords, loadWords)
     finishGamete(parent, parentIndex, child, childIndex, slot, architecture, random)
     return
   }
