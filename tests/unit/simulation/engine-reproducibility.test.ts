@@ -5,8 +5,9 @@
  * first committed (commit 13b090c, "Simulation engine: seeded allele-frequency and
  * individual-based rescue models …", engine version simulate-1.0.0), before the speed-ups of
  * the allele-frequency model (setup-array BTRD, cached acceptance tables, quiet-stretch loop,
- * jumps by table, the WebAssembly drift-step kernel running replicates side by side), which must
- * not change any draw.
+ * jumps by table, the WebAssembly drift-step kernel running replicates side by side) and of the
+ * individual-based model (WebAssembly kernels for gamete words, fitness sums, pedigree kinship and
+ * allele counts), which must not change any draw.
  *
  * If this test fails after a change under shared/genetics/simulate, the change alters results
  * for a given seed: either undo that, or bump SIMULATION_ENGINE_VERSION (so stored runs say
