@@ -7,7 +7,7 @@
 // operation mirrors the TypeScript sampler (`DriftStepCache.draw`, `binomialInversionFromTable`,
 // `binomialBtrdFromUniform` with an acceptance table) in the same order on the same IEEE doubles,
 // and the logarithm is the host's Math.log (imported), so each draw is bit-for-bit the one the
-// TypeScript code makes. tests/unit/simulate/drift-step-kernel.test.ts checks that.
+// TypeScript code makes. tests/unit/simulation/drift-step-kernel.test.ts checks that.
 // The logarithm is fdlibm's __ieee754_log, the algorithm behind V8's Math.log (v8/src/base/ieee754.cc),
 // written out operation for operation; the test compares it with Math.log on millions of arguments.
 //

@@ -5,7 +5,7 @@
 // loop `evaluateFitness` (shared/genetics/simulate/rescue/evaluate.ts) describes: word by word
 // across all individuals, each individual adding its words in order, the four homozygous then
 // the four heterozygous byte lookups of a word added left to right — the same IEEE additions
-// in the same order, so the same doubles.
+// in the same order, so the same doubles (tests/unit/genetics/rescue-kernels.test.ts).
 
 /**
  * out[i] = Σ_w (hom[w][bytes of a&b] summed left to right) + (het[w][bytes of a^b] …) for each

@@ -6,7 +6,7 @@
 // f(x, x) = ½[1 + f(mx, fx)], parents numbered ≥ parentCount being founders (kinship ½ with
 // themselves, 0 with anyone else). The parents' matrix is float32; each value is summed in double
 // precision in that order and rounded to float32 once, as the TypeScript does, so every entry is
-// the same bit for bit (tests/unit/genetics/kinship-kernel.test.ts).
+// the same bit for bit (tests/unit/genetics/rescue-kernels.test.ts).
 
 /** f(a, b) between two parents (byte address of the parents' matrix, parentCount × parentCount). */
 // @ts-ignore: decorator

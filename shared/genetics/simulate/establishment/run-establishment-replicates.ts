@@ -159,7 +159,9 @@ export function runEstablishmentBlock(fn: string, params: EstablishmentParams, b
 /**
  * One replicate: generation by generation, translocation (adding migrants'
  * genes), continuing migration, recording, selection, Wright–Fisher drift,
- * until fixation, definitive loss or the horizon.
+ * until fixation, definitive loss or the horizon. A generator: for each quiet
+ * stretch it puts itself on lane `lane` of the drift-step kernel and yields
+ * that kernel (see replicate-lanes.ts); it returns its outcome code.
  */
 function* replicateRun(tally: BlockTally, random: RandomStream, replicate: number, lane: number): LaneReplicate {
   const { plan, grid, counts, quietUntil } = tally
