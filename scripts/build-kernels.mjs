@@ -1,7 +1,7 @@
 // Compiles the AssemblyScript kernels in kernels/ to WebAssembly and writes each one as a base64
 // string module in shared/genetics/simulate/kernels/ (`npm run build:kernels`). The generated
 // modules are committed, so the engine runs without a build step anywhere (tsx, vitest, Nitro,
-// worker threads); tests/unit/simulate/kernel-build.test.ts compiles again and fails if a
+// worker threads); tests/unit/simulation/kernel-build.test.ts compiles again and fails if a
 // committed module no longer matches its source.
 import { readFile, writeFile } from 'node:fs/promises'
 import { dirname, join } from 'node:path'

@@ -86,7 +86,7 @@ describe('offspringKinship (pedigree coancestry, by definition)', () => {
           const pick = (from: number, count: number): number => from + ((random.next() >>> 0) % count)
           const mothers = Int32Array.from({ length: next }, () => (immigrants && (random.next() & 7) === 0 ? pick(size, 3) : pick(0, half)))
           const fathers = Int32Array.from({ length: next }, () => pick(half, size - half))
-          kinship = offspringKinship(kinship, size, mothers, fathers, new Float32Array(next * next + 5))
+          kinship = offspringKinship(kinship, size, mothers, fathers)
           reference = recurrence(reference, size, mothers, fathers)
           size = next
           if (!kinship.every((value, index) => Object.is(value, reference[index]))) return false

@@ -1,7 +1,5 @@
 import { alleleCountsWasm } from './allele-counts-wasm'
-import { kernelModule } from './instantiate'
-
-const PAGE_BYTES = 65_536
+import { ensureMemoryBytes, kernelMemory, kernelModule } from './instantiate'
 
 type CountAllelesExport = (bits: number, words: number, haplotypes: number, counts: number) => void
 
@@ -24,10 +22,10 @@ export function countAllelesInKernel(bits: Int32Array, words: number, haplotypes
   const bitsLength = haplotypes * words
   const needed = (countsLength + bitsLength) * 4
   if (!memory || !countAllelesExport) {
-    memory = new WebAssembly.Memory({ initial: Math.max(1, Math.ceil(needed / PAGE_BYTES)) })
+    memory = kernelMemory(needed)
     countAllelesExport = new WebAssembly.Instance(kernelModule(alleleCountsWasm), { env: { memory } }).exports.countAlleles as CountAllelesExport
-  } else if (needed > memory.buffer.byteLength) {
-    memory.grow(Math.ceil((needed - memory.buffer.byteLength) / PAGE_BYTES))
+  } else {
+    ensureMemoryBytes(memory, needed)
   }
   const counts = new Int32Array(memory.buffer, 0, countsLength)
   counts.fill(0)

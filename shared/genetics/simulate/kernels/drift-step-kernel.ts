@@ -1,8 +1,9 @@
 import { xoroshiro128plusFromState } from 'pure-rand/generator/xoroshiro128plus'
 import type { JumpableRandomGenerator } from 'pure-rand/types/JumpableRandomGenerator'
 import type { RandomStream } from '../random/streams'
+import { readKernelState, writeKernelState } from '../random/word-stream'
 import { driftStepWasm } from './drift-step-wasm'
-import { kernelModule } from './instantiate'
+import { kernelMemory, kernelModule } from './instantiate'
 
 /** Doubles per count in the header area: state, binomialSetup's 7 entries, 0.86·v_r, 2a, table length, spare. */
 export const KERNEL_HEADER_STRIDE = 12
@@ -28,7 +29,6 @@ export const LANE_STATUS = 9
 const LANE_STOP_AT = 10
 export const LANE_RUNNING = 1
 export const LANE_STOPPED = 2
-const PAGE_BYTES = 65_536
 
 type RunLanesExport = (laneCount: number, genes: number, headerBase: number, tableBase: number, gridBase: number, gridLength: number) => void
 
@@ -57,7 +57,7 @@ export class DriftStepKernel {
   readonly lanes: Int32Array
   private readonly genes: number
   private readonly gridBase: number
-  private readonly gridLength: number
+  /** The grid, a view of its copy in the kernel's memory. */
   private readonly grid: Int32Array
   private readonly headerBase: number
   private readonly tableBase: number
@@ -71,16 +71,15 @@ export class DriftStepKernel {
     this.genes = genes
     const counts = genes + 1
     this.gridBase = KERNEL_LANES * LANE_WORDS * 4
-    this.gridLength = grid.length
-    this.grid = Int32Array.from(grid)
     this.headerBase = this.gridBase + Math.ceil(grid.length / 2) * 8
     this.tableBase = this.headerBase + counts * KERNEL_HEADER_STRIDE * 8
     const bytes = this.tableBase + counts * KERNEL_TABLE_SLOT * 8
-    const memory = new WebAssembly.Memory({ initial: Math.ceil(bytes / PAGE_BYTES) })
+    const memory = kernelMemory(bytes)
     const instance = new WebAssembly.Instance(kernelModule(driftStepWasm), { env: { memory } })
     this.runLanesExport = instance.exports.runLanes as RunLanesExport
     this.lanes = new Int32Array(memory.buffer, 0, KERNEL_LANES * LANE_WORDS)
-    new Int32Array(memory.buffer, this.gridBase, grid.length).set(grid)
+    this.grid = new Int32Array(memory.buffer, this.gridBase, grid.length)
+    this.grid.set(grid)
     this.headers = new Float64Array(memory.buffer, this.headerBase, counts * KERNEL_HEADER_STRIDE)
     this.tables = new Float64Array(memory.buffer, this.tableBase, counts * KERNEL_TABLE_SLOT)
   }
@@ -92,17 +91,12 @@ export class DriftStepKernel {
    */
   startLane(lane: number, random: RandomStream, copies: number, generation: number, end: number, gridIndex: number): void {
     const at = lane * LANE_WORDS
-    // pure-rand's state [s01, s00, s11, s10] (high and low halves) → the kernel's little-endian s0, s1.
-    const [high0, low0, high1, low1] = random.getState()
-    this.lanes[at] = low0 ?? 0
-    this.lanes[at + 1] = high0 ?? 0
-    this.lanes[at + 2] = low1 ?? 0
-    this.lanes[at + 3] = high1 ?? 0
+    writeKernelState(random.getState(), this.lanes, at)
     this.lanes[at + LANE_COUNT] = copies
     this.lanes[at + LANE_GENERATION] = generation
     this.lanes[at + LANE_END] = end
     this.lanes[at + LANE_GRID_INDEX] = gridIndex
-    this.lanes[at + LANE_STOP_AT] = gridIndex < this.gridLength ? Math.min(end, this.grid[gridIndex] as number) : end
+    this.lanes[at + LANE_STOP_AT] = gridIndex < this.grid.length ? Math.min(end, this.grid[gridIndex] as number) : end
     this.lanes[at + LANE_RECORDED] = 0
     this.lanes[at + LANE_STATUS] = LANE_RUNNING
   }
@@ -116,13 +110,11 @@ export class DriftStepKernel {
 
   /** Runs the running lanes until at least one stops (see kernels/drift-step.ts `runLanes`). */
   runLanes(): void {
-    this.runLanesExport(KERNEL_LANES, this.genes, this.headerBase, this.tableBase, this.gridBase, this.gridLength)
+    this.runLanesExport(KERNEL_LANES, this.genes, this.headerBase, this.tableBase, this.gridBase, this.grid.length)
   }
 
   /** A generator positioned where a lane's stream stands (pure-rand's xoroshiro128+). */
   laneStream(lane: number): JumpableRandomGenerator {
-    const at = lane * LANE_WORDS
-    const lanes = this.lanes
-    return xoroshiro128plusFromState([lanes[at + 1] as number, lanes[at] as number, lanes[at + 3] as number, lanes[at + 2] as number])
+    return xoroshiro128plusFromState(readKernelState(this.lanes, lane * LANE_WORDS))
   }
 }

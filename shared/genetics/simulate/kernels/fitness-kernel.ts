@@ -1,7 +1,5 @@
 import { fitnessWasm } from './fitness-wasm'
-import { kernelModule } from './instantiate'
-
-const PAGE_BYTES = 65_536
+import { ensureMemoryBytes, kernelMemory, kernelModule } from './instantiate'
 
 type LogFitnessExport = (haplotypes: number, size: number, words: number, hom: number, het: number, out: number) => void
 
@@ -18,6 +16,8 @@ export class FitnessKernel {
   private readonly memory: WebAssembly.Memory
   private readonly logFitnessExport: LogFitnessExport
   private readonly words: number
+  /** Bytes where the heterozygous tables start and where both tables end. */
+  private readonly heterozygousByte: number
   private readonly tablesEnd: number
 
   /**
@@ -27,10 +27,11 @@ export class FitnessKernel {
    */
   constructor(words: number, homozygous: Float64Array, heterozygous: Float64Array) {
     this.words = words
-    this.tablesEnd = (homozygous.length + heterozygous.length) * 8
-    this.memory = new WebAssembly.Memory({ initial: Math.max(1, Math.ceil(this.tablesEnd / PAGE_BYTES)) })
+    this.heterozygousByte = homozygous.length * 8
+    this.tablesEnd = this.heterozygousByte + heterozygous.length * 8
+    this.memory = kernelMemory(this.tablesEnd)
     new Float64Array(this.memory.buffer, 0, homozygous.length).set(homozygous)
-    new Float64Array(this.memory.buffer, homozygous.length * 8, heterozygous.length).set(heterozygous)
+    new Float64Array(this.memory.buffer, this.heterozygousByte, heterozygous.length).set(heterozygous)
     const instance = new WebAssembly.Instance(kernelModule(fitnessWasm), { env: { memory: this.memory } })
     this.logFitnessExport = instance.exports.logFitness as LogFitnessExport
   }
@@ -45,12 +46,9 @@ export class FitnessKernel {
   logFitness(load: Int32Array, size: number): Float64Array {
     const sumsByte = this.tablesEnd
     const haplotypesByte = sumsByte + size * 8
-    const needed = haplotypesByte + load.length * 4
-    const current = this.memory.buffer.byteLength
-    if (needed > current) this.memory.grow(Math.ceil((needed - current) / PAGE_BYTES))
+    ensureMemoryBytes(this.memory, haplotypesByte + load.length * 4)
     new Int32Array(this.memory.buffer, haplotypesByte, load.length).set(load)
-    const tables = this.words * 1024 * 8
-    this.logFitnessExport(haplotypesByte, size, this.words, 0, tables, sumsByte)
+    this.logFitnessExport(haplotypesByte, size, this.words, 0, this.heterozygousByte, sumsByte)
     return new Float64Array(this.memory.buffer, sumsByte, size).slice()
   }
 }

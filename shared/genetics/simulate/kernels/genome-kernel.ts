@@ -1,9 +1,8 @@
 import { genomeWasm } from './genome-wasm'
-import { kernelModule } from './instantiate'
+import { ensureMemoryBytes, kernelMemory, kernelModule } from './instantiate'
 
 /** First byte of the haplotype arrays (bytes 0–15 hold the generator state). */
 const ARRAYS_BYTE = 16
-const PAGE_BYTES = 65_536
 
 type GameteExport = (markerFirst: number, markerOut: number, markerWords: number, loadFirst: number, loadOut: number, loadWords: number) => void
 
@@ -25,7 +24,7 @@ export class GenomeKernel {
   private nextFree = ARRAYS_BYTE
 
   constructor() {
-    this.memory = new WebAssembly.Memory({ initial: 1 })
+    this.memory = kernelMemory(0)
     const instance = new WebAssembly.Instance(kernelModule(genomeWasm), { env: { memory: this.memory } })
     this.gameteExport = instance.exports.gamete as GameteExport
   }
@@ -33,9 +32,7 @@ export class GenomeKernel {
   /** Frees every array and makes room for `words` int32 words of arrays (views taken before are invalid). */
   reserve(words: number): void {
     this.nextFree = ARRAYS_BYTE
-    const needed = ARRAYS_BYTE + words * 4
-    const current = this.memory.buffer.byteLength
-    if (needed > current) this.memory.grow(Math.ceil((needed - current) / PAGE_BYTES))
+    ensureMemoryBytes(this.memory, ARRAYS_BYTE + words * 4)
   }
 
   /** The generator state words, where a `WordStream` is relocated while the kernel draws. */

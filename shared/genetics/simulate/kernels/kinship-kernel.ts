@@ -1,7 +1,5 @@
 import { kinshipWasm } from './kinship-wasm'
-import { kernelModule } from './instantiate'
-
-const PAGE_BYTES = 65_536
+import { kernelMemory, kernelModule } from './instantiate'
 
 type OffspringKinshipExport = (parents: number, parentCount: number, mothers: number, fathers: number, size: number, out: number) => void
 
@@ -61,7 +59,7 @@ export class KinshipKernel {
     this.matrixCapacity = Math.ceil(entries * 1.25) + 16
     this.parentCapacity = Math.ceil(parents * 1.25) + 16
     const bytes = 2 * this.matrixCapacity * 4 + 2 * this.parentCapacity * 4
-    this.memory = new WebAssembly.Memory({ initial: Math.max(1, Math.ceil(bytes / PAGE_BYTES)) })
+    this.memory = kernelMemory(bytes)
     const instance = new WebAssembly.Instance(kernelModule(kinshipWasm), { env: { memory: this.memory } })
     this.run = instance.exports.offspringKinship as OffspringKinshipExport
   }

@@ -2,6 +2,23 @@ import type { JumpableRandomGenerator } from 'pure-rand/types/JumpableRandomGene
 import { jumpedState } from './jump-table'
 
 /**
+ * Writes a xoroshiro128+ state given in pure-rand's `getState()` order ([high s0, low s0,
+ * high s1, low s1]) as the kernels keep it: s0 and s1 as little-endian 64-bit words, i.e.
+ * [low s0, high s0, low s1, high s1], at words[offset …].
+ */
+export function writeKernelState(state: readonly number[], words: Int32Array, offset: number): void {
+  words[offset] = state[1] ?? 0
+  words[offset + 1] = state[0] ?? 0
+  words[offset + 2] = state[3] ?? 0
+  words[offset + 3] = state[2] ?? 0
+}
+
+/** The state kept by the kernels at words[offset …] (see `writeKernelState`), in pure-rand's order. */
+export function readKernelState(words: Int32Array, offset: number): number[] {
+  return [words[offset + 1] as number, words[offset] as number, words[offset + 3] as number, words[offset + 2] as number]
+}
+
+/**
  * pure-rand's xoroshiro128+ (the same `next()`, operation for operation) with its state in four
  * int32 words that can be moved into a WebAssembly kernel's memory (`relocate`), so that
  * TypeScript and the kernel draw from one stream in turn.
@@ -22,10 +39,7 @@ export class WordStream implements JumpableRandomGenerator {
   /** @param state - a xoroshiro128+ state in pure-rand's `getState()` order, not all zero */
   constructor(state: readonly number[]) {
     this.own = new Int32Array(4)
-    this.own[0] = state[1] ?? 0
-    this.own[1] = state[0] ?? 0
-    this.own[2] = state[3] ?? 0
-    this.own[3] = state[2] ?? 0
+    writeKernelState(state, this.own, 0)
     this.words = this.own
   }
 
@@ -49,8 +63,7 @@ export class WordStream implements JumpableRandomGenerator {
 
   /** The state in pure-rand's order. */
   getState(): readonly number[] {
-    const words = this.words
-    return [words[1] as number, words[0] as number, words[3] as number, words[2] as number]
+    return readKernelState(this.words, 0)
   }
 
   clone(): WordStream {
@@ -59,11 +72,7 @@ export class WordStream implements JumpableRandomGenerator {
 
   /** Advances by 2⁶⁴ steps, as pure-rand's `jump()`. */
   jump(): void {
-    const jumped = jumpedState(this.getState(), 1)
-    this.words[0] = jumped[1] ?? 0
-    this.words[1] = jumped[0] ?? 0
-    this.words[2] = jumped[3] ?? 0
-    this.words[3] = jumped[2] ?? 0
+    writeKernelState(jumpedState(this.getState(), 1), this.words, 0)
   }
 
   /** Moves the state into `target` (four int32 words, e.g. a kernel's); draws then read and advance it there. */

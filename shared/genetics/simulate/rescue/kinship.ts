@@ -29,17 +29,13 @@
  * @param parentCount - P
  * @param mothers - parent number of each offspring's mother
  * @param fathers - parent number of each offspring's father
- * @param reuse - optional buffer for the result (used if it holds ≥ N² entries
- *   and is not `parentKinship`)
- * @returns the N × N kinship of the offspring (a view of `reuse` when it was used)
+ * @returns the N × N kinship of the offspring (a new array)
  * @example offspringKinship(Float32Array.of(0.5, 0, 0, 0.5), 2, Int32Array.of(0, 0), Int32Array.of(1, 1))
  *   // Float32Array [0.5, 0.25, 0.25, 0.5] (full sibs of unrelated founders)
  */
-export function offspringKinship(parentKinship: Float32Array, parentCount: number, mothers: Int32Array, fathers: Int32Array, reuse?: Float32Array): Float32Array {
+export function offspringKinship(parentKinship: Float32Array, parentCount: number, mothers: Int32Array, fathers: Int32Array): Float32Array {
   const size = mothers.length
-  const kinship = reuse && reuse.length >= size * size && reuse.buffer !== parentKinship.buffer
-    ? reuse.subarray(0, size * size)
-    : new Float32Array(size * size)
+  const kinship = new Float32Array(size * size)
   let immigrantParents = false
   for (let y = 0; y < size; y++) {
     if ((mothers[y] as number) >= parentCount || (fathers[y] as number) >= parentCount) immigrantParents = true
