@@ -47,3 +47,126 @@ export function gamete(markerFirst: usize, markerOut: usize, markerWords: i32, l
   gameteWords(markerFirst, markerFirst + (<usize>markerWords << 2), markerOut, markerWords)
   gameteWords(loadFirst, loadFirst + (<usize>loadWords << 2), loadOut, loadWords)
 }
+
+// ---------------------------------------------------------------------------------------------
+// A whole generation (no immigrants): `reproduce`'s loop over offspring and parental slots
+// (shared/genetics/simulate/rescue/reproduce.ts) with the TypeScript helpers it calls there —
+// `uniform01` (random/uniform.ts), `WeightedSampler.sample` (random/weighted-sampler.ts),
+// `writeGamete` and `finishGamete` (rescue/gamete.ts) and `samplePoisson` below its
+// multiplication limit (random/poisson.ts) — the same IEEE operations on the same draws in the
+// same order, so the offspring, the parent numbers and the stream's end state are those of the
+// TypeScript (tests/unit/genetics/genome-kernel.test.ts).
+
+/** The stream's two state words while `offspringGeneration` runs (copied in and out of bytes 0–15). */
+let streamState0: i64 = 0
+let streamState1: i64 = 0
+
+/** pure-rand's xoroshiro128+ next() on the global state (as in `gameteWords`). */
+// @ts-ignore: decorator
+@inline function nextWord(): i32 {
+  const s0 = streamState0
+  const s1 = streamState1
+  const out = <i32>(s0 + s1)
+  const mixed = s1 ^ s0
+  streamState0 = rotl<i64>(s0, 24) ^ mixed ^ (mixed << 16)
+  streamState1 = rotl<i64>(mixed, 37)
+  return out
+}
+
+/** uniform01: (high 26 bits · 2²⁷ + low 27 bits) · 2⁻⁵³ from two draws, high first. */
+// @ts-ignore: decorator
+@inline function uniform01(): f64 {
+  const high = <u32>nextWord() >>> 6
+  const low = <u32>nextWord() >>> 5
+  return (<f64>high * 134217728.0 + <f64>low) * (1.0 / 9007199254740992.0)
+}
+
+/** `WeightedSampler.sample` on the alias tables at `threshold` (f64) and `alias` (i32) of `size` columns. */
+// @ts-ignore: decorator
+@inline function sampleColumn(threshold: usize, alias: usize, size: i32): i32 {
+  const position = uniform01() * <f64>size
+  const column = Math.floor(position)
+  const index = <i32>column
+  return position - column < load<f64>(threshold + (<usize>index << 3)) ? index : load<i32>(alias + (<usize>index << 2))
+}
+
+/** `gameteWords` on the global state. */
+function gameteWordsGlobal(first: usize, second: usize, out: usize, words: i32): void {
+  let state0 = streamState0
+  let state1 = streamState1
+  for (let word: usize = 0; word < <usize>words; word++) {
+    const a = load<i32>(first + (word << 2))
+    const difference = a ^ load<i32>(second + (word << 2))
+    if (difference == 0) {
+      store<i32>(out + (word << 2), a)
+    } else {
+      const random = <i32>(state0 + state1)
+      const mixed = state1 ^ state0
+      state0 = rotl<i64>(state0, 24) ^ mixed ^ (mixed << 16)
+      state1 = rotl<i64>(mixed, 37)
+      store<i32>(out + (word << 2), a ^ (difference & random))
+    }
+  }
+  streamState0 = state0
+  streamState1 = state1
+}
+
+/**
+ * Writes `count` offspring from the parents. All addresses are bytes; the parents' and
+ * offspring's marker and load haplotypes (int32 words) and adaptive alleles (one byte per
+ * haplotype) are laid out as in `Population`. Mothers come from the female sampler (alias
+ * tables `femaleThreshold`, `femaleAlias` over `femaleSize` columns; column c is parent
+ * `femaleIndices[c]`), fathers likewise from the male sampler; each offspring's mother and father
+ * go to `mothers` and `fathers`. After each gamete's words, Poisson(U) new harmful mutations at
+ * uniform load loci when `mutate` ≠ 0 (`mutationLimit` = e^−U, U below the multiplication limit),
+ * then the adaptive allele of a random parental haplotype.
+ */
+export function offspringGeneration(
+  count: i32,
+  femaleIndices: usize, femaleThreshold: usize, femaleAlias: usize, femaleSize: i32,
+  maleIndices: usize, maleThreshold: usize, maleAlias: usize, maleSize: i32,
+  parentMarkers: usize, parentLoad: usize, parentAdaptive: usize,
+  childMarkers: usize, childLoad: usize, childAdaptive: usize,
+  markerWords: i32, loadWords: i32,
+  mutate: i32, mutationLimit: f64, loadLoci: i32,
+  mothers: usize, fathers: usize,
+): void {
+  streamState0 = load<i64>(0)
+  streamState1 = load<i64>(8)
+  const markerBytes = <usize>markerWords << 2
+  const loadBytes = <usize>loadWords << 2
+  for (let child: i32 = 0; child < count; child++) {
+    for (let slot: i32 = 0; slot < 2; slot++) {
+      let parent: i32
+      if (slot == 0) {
+        parent = load<i32>(femaleIndices + (<usize>sampleColumn(femaleThreshold, femaleAlias, femaleSize) << 2))
+        store<i32>(mothers + (<usize>child << 2), parent)
+      } else {
+        parent = load<i32>(maleIndices + (<usize>sampleColumn(maleThreshold, maleAlias, maleSize) << 2))
+        store<i32>(fathers + (<usize>child << 2), parent)
+      }
+      const haplotype = <usize>(2 * child + slot)
+      const markerFirst = parentMarkers + <usize>(2 * parent) * markerBytes
+      gameteWordsGlobal(markerFirst, markerFirst + markerBytes, childMarkers + haplotype * markerBytes, markerWords)
+      const loadFirst = parentLoad + <usize>(2 * parent) * loadBytes
+      const loadOut = childLoad + haplotype * loadBytes
+      gameteWordsGlobal(loadFirst, loadFirst + loadBytes, loadOut, loadWords)
+      if (mutate != 0) {
+        let mutations: i32 = 0
+        let product = uniform01()
+        while (product > mutationLimit) {
+          mutations++
+          product *= uniform01()
+        }
+        for (let mutation: i32 = 0; mutation < mutations; mutation++) {
+          const locus = <i32>Math.floor(uniform01() * <f64>loadLoci)
+          const word = loadOut + (<usize>(locus >> 5) << 2)
+          store<i32>(word, load<i32>(word) | (1 << (locus & 31)))
+        }
+      }
+      store<u8>(childAdaptive + haplotype, load<u8>(parentAdaptive + <usize>(2 * parent) + <usize>(nextWord() & 1)))
+    }
+  }
+  store<i64>(0, streamState0)
+  store<i64>(8, streamState1)
+}

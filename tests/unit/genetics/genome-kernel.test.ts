@@ -3,14 +3,16 @@
  * write, drawing the same numbers: `reproduce` is run twice from the same parents and stream
  * state, once with a pure-rand generator (TypeScript loops, the reference) and once with a
  * WordStream (kernel), and everything must agree bit for bit — offspring haplotypes, adaptive
- * alleles, pedigree kinship and where each stream ends.
+ * alleles, parents, pedigree kinship and where each stream ends. Without continuing migration the
+ * kernel runs the whole generation (parent draws, gametes, new mutations, adaptive alleles); with
+ * it, the TypeScript loop calls the kernel for each gamete's words.
  */
 import fc from 'fast-check'
 import { describe, expect, it } from 'vitest'
 import { xoroshiro128plusFromState } from 'pure-rand/generator/xoroshiro128plus'
 import { genomeArchitecture } from '../../../shared/genetics/simulate/rescue/architecture'
 import { rescuePlan } from '../../../shared/genetics/simulate/rescue/rescue-plan'
-import { foundingPopulation } from '../../../shared/genetics/simulate/rescue/founders'
+import { assignAdaptiveAlleles, foundingPopulation } from '../../../shared/genetics/simulate/rescue/founders'
 import { founderPedigree } from '../../../shared/genetics/simulate/rescue/pedigree'
 import { gameteScratch } from '../../../shared/genetics/simulate/rescue/gamete'
 import { evaluateFitness } from '../../../shared/genetics/simulate/rescue/evaluate'
@@ -23,22 +25,27 @@ import type { RescueParams } from '../../../shared/genetics/simulate/rescue'
 const snapshot = (population: Population | null) => population && {
   markers: Array.from(population.markers), load: Array.from(population.load), adaptive: Array.from(population.adaptive),
   kinship: population.pedigree ? Array.from(population.pedigree.parentKinship) : null,
+  mothers: population.pedigree ? Array.from(population.pedigree.mothers) : null,
+  fathers: population.pedigree ? Array.from(population.pedigree.fathers) : null,
 }
 
 describe('genome kernel gametes', () => {
   it('reproduce gives the same offspring and stream position with the kernel as with the TypeScript loops', () => {
     fc.assert(fc.property(
       fc.integer({ min: 4, max: 60 }), fc.integer({ min: 1, max: 300 }), fc.integer({ min: 1, max: 100 }),
-      fc.double({ min: 0, max: 0.3, noNaN: true }), fc.integer({ min: 1, max: 1000 }),
-      (size, loadLoci, markerLoci, migrationRate, seed) => {
+      // m = 0 runs the whole generation in the kernel; m > 0 the TypeScript loop with kernel gametes.
+      fc.oneof(fc.constant(0), fc.double({ min: 0, max: 0.3, noNaN: true })), fc.integer({ min: 1, max: 1000 }),
+      fc.constantFrom(0, 0.4, 3, 12), fc.constantFrom(0.7, 1),
+      (size, loadLoci, markerLoci, migrationRate, seed, mutationRate, effectiveRatio) => {
         const params: RescueParams = {
           recipient: { census: size }, source: { census: size + 3 }, generations: 3, markerLoci,
-          load: { loci: loadLoci, mutationRate: 0.4 }, adaptive: { s: 0.1, h: 0.5, sourceFrequency: 0.5 },
+          load: { loci: loadLoci, mutationRate }, adaptive: { s: 0.1, h: 0.5, sourceFrequency: 0.5 },
           translocation: { migrantsPerEvent: 1, eventInterval: 1, events: 1, migrationRate },
         }
         const architecture = genomeArchitecture(rescuePlan('test', params), sharedStream(seed))
         const founders = replicateStream(seed, 0)
         const parents = foundingPopulation(size, architecture, founders)
+        assignAdaptiveAlleles(parents, 0.5, founders)
         parents.pedigree = founderPedigree(size)
         const source = foundingPopulation(size + 3, architecture, founders)
         const fitness = evaluateFitness(parents, architecture, null)
@@ -46,13 +53,13 @@ describe('genome kernel gametes', () => {
         const state = replicateStream(seed, 1).getState()
 
         const reference = xoroshiro128plusFromState(state)
-        const expected = reproduce(parents, fitness, size + 1, 0.7, architecture, immigrants, reference, reproductionScratch(gameteScratch(architecture)))
+        const expected = reproduce(parents, fitness, size + 1, effectiveRatio, architecture, immigrants, reference, reproductionScratch(gameteScratch(architecture)))
         const stream = new WordStream(state)
-        const actual = reproduce(parents, fitness, size + 1, 0.7, architecture, immigrants, stream, reproductionScratch(gameteScratch(architecture)))
+        const actual = reproduce(parents, fitness, size + 1, effectiveRatio, architecture, immigrants, stream, reproductionScratch(gameteScratch(architecture)))
 
         expect(snapshot(actual)).toEqual(snapshot(expected))
         expect(stream.getState()).toEqual(reference.getState())
       },
-    ), { numRuns: 40 })
+    ), { numRuns: 60 })
   })
 })

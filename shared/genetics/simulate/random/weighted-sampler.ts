@@ -21,8 +21,10 @@ import { uniform01 } from './uniform'
 export class WeightedSampler {
   /** Number of categories. */
   readonly size: number
-  private readonly threshold: Float64Array
-  private readonly alias: Int32Array
+  /** Per column: the probability of keeping the column rather than taking its alias (read by the genome kernel's generation loop). */
+  readonly threshold: Float64Array
+  /** Per column: the index drawn when the column is not kept. */
+  readonly alias: Int32Array
 
   /**
    * @param weights - finite numbers ≥ 0 with a positive sum

@@ -1,6 +1,8 @@
 import type { RandomStream } from '../random/streams'
 import { WordStream } from '../random/word-stream'
-import { GenomeKernel } from '../kernels/genome-kernel'
+import { GenomeKernel, kernelArrayBytes } from '../kernels/genome-kernel'
+import type { KernelGeneration, KernelHaplotypes, KernelSamplerTables } from '../kernels/genome-kernel'
+import { POISSON_MULTIPLICATION_LIMIT } from '../random/poisson'
 import { KinshipKernel } from '../kernels/kinship-kernel'
 import { uniform01, uniformIndex } from '../random/uniform'
 import { WeightedSampler } from '../random/weighted-sampler'
@@ -82,56 +84,59 @@ export function reproduce(
 
   const immigrantFemales: number[] = []
   const immigrantMales: number[] = []
-  if (immigrants && immigrants.rate > 0) {
+  const immigration = immigrants !== null && immigrants.rate > 0
+  if (immigration) {
     for (let i = 0; i < immigrants.source.size; i++) (immigrants.source.male[i] === 1 ? immigrantMales : immigrantFemales).push(i)
   }
   const trackKinship = parents.pedigree !== null
   const offspring = allocatePopulation(offspringCount, architecture)
-  // Under free recombination with a relocatable stream, the gamete words are written by the genome
-  // kernel: parents, immigrant source and offspring haplotypes are staged in its memory and the
-  // stream's state moves into its state words for the loop (same draws, same order).
-  const staged = architecture.markerLayout === null && architecture.loadLayout === null && random instanceof WordStream
-    ? stageInKernel(scratch.genome, parents, immigrants?.source ?? null, offspring, random)
-    : null
-  const breeding = staged ? staged.parents : parents
-  const donors = staged?.source ?? immigrants?.source ?? null
-  const written = staged ? staged.offspring : offspring
-  scratch.gamete.kernel = staged ? scratch.genome : null
   const mothers = new Int32Array(offspringCount)
   const fathers = new Int32Array(offspringCount)
   // Immigrants get parent numbers P, P+1, … in order of first use (kinship only).
   const immigrantNumber = new Map<number, number>()
-  const numberImmigrant = (sourceIndex: number): number => {
-    const known = immigrantNumber.get(sourceIndex)
-    if (known !== undefined) return known
-    const assigned = parents.size + immigrantNumber.size
-    immigrantNumber.set(sourceIndex, assigned)
-    return assigned
-  }
-
-  try {
-    for (let child = 0; child < offspringCount; child++) {
-      for (let slot = 0; slot < 2; slot++) {
-        const pool = slot === 0 ? immigrantFemales : immigrantMales
-        if (pool.length > 0 && immigrants && donors && uniform01(random) < immigrants.rate) {
-          const sourceIndex = pool[uniformIndex(random, pool.length)] as number // index < pool.length
-          writeGamete(donors, sourceIndex, written, child, slot, architecture, random, scratch.gamete)
-          if (trackKinship) (slot === 0 ? mothers : fathers)[child] = numberImmigrant(sourceIndex)
-        } else {
-          const parent = slot === 0 ? femaleSampler.draw(random) : maleSampler.draw(random)
-          writeGamete(breeding, parent, written, child, slot, architecture, random, scratch.gamete)
-          if (trackKinship) (slot === 0 ? mothers : fathers)[child] = parent
+  const kernelReady = architecture.markerLayout === null && architecture.loadLayout === null && random instanceof WordStream
+  if (kernelReady && !immigration && architecture.mutationRate < POISSON_MULTIPLICATION_LIMIT) {
+    writeGenerationInKernel(scratch.genome, parents, offspring, femaleSampler, maleSampler, mothers, fathers, architecture, random)
+  } else {
+    // Under free recombination with a relocatable stream, the gamete words are written by the genome
+    // kernel: parents, immigrant source and offspring haplotypes are staged in its memory and the
+    // stream's state moves into its state words for the loop (same draws, same order).
+    const staged = kernelReady ? stageInKernel(scratch.genome, parents, immigrants?.source ?? null, offspring, random) : null
+    const breeding = staged ? staged.parents : parents
+    const donors = staged?.source ?? immigrants?.source ?? null
+    const written = staged ? staged.offspring : offspring
+    scratch.gamete.kernel = staged ? scratch.genome : null
+    const numberImmigrant = (sourceIndex: number): number => {
+      const known = immigrantNumber.get(sourceIndex)
+      if (known !== undefined) return known
+      const assigned = parents.size + immigrantNumber.size
+      immigrantNumber.set(sourceIndex, assigned)
+      return assigned
+    }
+    try {
+      for (let child = 0; child < offspringCount; child++) {
+        for (let slot = 0; slot < 2; slot++) {
+          const pool = slot === 0 ? immigrantFemales : immigrantMales
+          if (pool.length > 0 && immigrants && donors && uniform01(random) < immigrants.rate) {
+            const sourceIndex = pool[uniformIndex(random, pool.length)] as number // index < pool.length
+            writeGamete(donors, sourceIndex, written, child, slot, architecture, random, scratch.gamete)
+            if (trackKinship) (slot === 0 ? mothers : fathers)[child] = numberImmigrant(sourceIndex)
+          } else {
+            const parent = (slot === 0 ? femaleSampler : maleSampler).draw(random)
+            writeGamete(breeding, parent, written, child, slot, architecture, random, scratch.gamete)
+            if (trackKinship) (slot === 0 ? mothers : fathers)[child] = parent
+          }
         }
       }
+    } finally {
+      // The stream goes back to its own words whatever happens, so that it stays usable.
+      staged?.stream.returnHome()
+      scratch.gamete.kernel = null
     }
-  } finally {
-    // The stream goes back to its own words whatever happens, so that it stays usable.
-    staged?.stream.returnHome()
-    scratch.gamete.kernel = null
-  }
-  if (staged) {
-    offspring.markers.set(staged.offspring.markers)
-    offspring.load.set(staged.offspring.load)
+    if (staged) {
+      offspring.markers.set(staged.offspring.markers)
+      offspring.load.set(staged.offspring.load)
+    }
   }
   if (parents.pedigree) {
     const kinship = scratch.kinship
@@ -142,18 +147,84 @@ export function reproduce(
 }
 
 /** Draws parent indices of one sex in proportion to their mating weights. */
-interface ParentSampler {
-  draw: (random: RandomStream) => number
+class ParentSampler {
+  /**
+   * @param indices - the parents of this sex: column c of the sampler is parent indices[c]
+   * @param sampler - alias tables over their mating weights
+   */
+  constructor(readonly indices: Int32Array, readonly sampler: WeightedSampler) {}
+
+  /** A parent index, in proportion to its weight. */
+  draw(random: RandomStream): number {
+    return this.indices[this.sampler.sample(random)] as number // sample < indices.length
+  }
 }
 
 function samplerFor(indices: number[], fitness: Float64Array, shape: number, random: RandomStream): ParentSampler | null {
-  const ownFitness = Float64Array.from(indices, index => fitness[index] ?? 0)
+  const ownFitness = new Float64Array(indices.length)
+  for (let i = 0; i < indices.length; i++) ownFitness[i] = fitness[indices[i] as number] ?? 0
   const weights = matingWeights(ownFitness, shape, random)
   let total = 0
   for (const weight of weights) total += weight
   if (!(total > 0)) return null
-  const sampler = new WeightedSampler(weights)
-  return { draw: generator => indices[sampler.sample(generator)] as number } // sample < indices.length
+  return new ParentSampler(Int32Array.from(indices), new WeightedSampler(weights))
+}
+
+/**
+ * `reproduce`'s loop without immigrants, run whole by the genome kernel: the parents' haplotypes,
+ * adaptive alleles and both samplers' alias tables are copied into its memory, the stream moves
+ * into its state words, and the offspring's haplotypes, adaptive alleles and parent numbers are
+ * copied out — the same draws in the same order as the TypeScript loop with `writeGamete`.
+ */
+function writeGenerationInKernel(
+  kernel: GenomeKernel,
+  parents: Population,
+  offspring: Population,
+  females: ParentSampler,
+  males: ParentSampler,
+  mothers: Int32Array,
+  fathers: Int32Array,
+  architecture: GenomeArchitecture,
+  random: WordStream,
+): void {
+  const samplerBytes = (sampler: ParentSampler): number => 2 * kernelArrayBytes(sampler.indices.length * 4) + kernelArrayBytes(sampler.indices.length * 8)
+  const haplotypeBytes = (population: Population): number =>
+    kernelArrayBytes(population.markers.length * 4) + kernelArrayBytes(population.load.length * 4) + kernelArrayBytes(population.adaptive.length)
+  kernel.reserve(samplerBytes(females) + samplerBytes(males) + haplotypeBytes(parents) + haplotypeBytes(offspring) + 2 * kernelArrayBytes(mothers.length * 4))
+  const tables = (sampler: ParentSampler): KernelSamplerTables => ({
+    indices: kernel.int32s(sampler.indices.length, sampler.indices),
+    threshold: kernel.float64s(sampler.indices.length, sampler.sampler.threshold),
+    alias: kernel.int32s(sampler.indices.length, sampler.sampler.alias),
+  })
+  const haplotypes = (population: Population, copy: boolean): KernelHaplotypes => ({
+    markers: kernel.int32s(population.markers.length, copy ? population.markers : undefined),
+    load: kernel.int32s(population.load.length, copy ? population.load : undefined),
+    adaptive: kernel.uint8s(population.adaptive.length, copy ? population.adaptive : undefined),
+  })
+  const job: KernelGeneration = {
+    count: offspring.size,
+    females: tables(females),
+    males: tables(males),
+    parents: haplotypes(parents, true),
+    offspring: haplotypes(offspring, false),
+    markerWords: architecture.markerWords,
+    loadWords: architecture.loadWords,
+    mutationLimit: architecture.loadWords > 0 && architecture.mutationRate > 0 ? Math.exp(-architecture.mutationRate) : null,
+    loadLoci: architecture.loadLoci,
+    mothers: kernel.int32s(mothers.length),
+    fathers: kernel.int32s(fathers.length),
+  }
+  random.relocate(kernel.state())
+  try {
+    kernel.generation(job)
+  } finally {
+    random.returnHome()
+  }
+  offspring.markers.set(job.offspring.markers)
+  offspring.load.set(job.offspring.load)
+  offspring.adaptive.set(job.offspring.adaptive)
+  mothers.set(job.mothers)
+  fathers.set(job.fathers)
 }
 
 /** Populations whose haplotype arrays are views of a genome kernel's memory. */
@@ -172,12 +243,13 @@ interface StagedPopulations {
  * `random.returnHome()` when the gametes are written.
  */
 function stageInKernel(kernel: GenomeKernel, parents: Population, source: Population | null, offspring: Population, random: WordStream): StagedPopulations {
-  const words = (population: Population | null): number => population ? population.markers.length + population.load.length : 0
-  kernel.reserve(words(parents) + words(source) + words(offspring))
+  const bytes = (population: Population | null): number =>
+    population ? kernelArrayBytes(population.markers.length * 4) + kernelArrayBytes(population.load.length * 4) : 0
+  kernel.reserve(bytes(parents) + bytes(source) + bytes(offspring))
   const stage = (population: Population, copy: boolean): Population => ({
     ...population,
-    markers: kernel.words(population.markers.length, copy ? population.markers : undefined),
-    load: kernel.words(population.load.length, copy ? population.load : undefined),
+    markers: kernel.int32s(population.markers.length, copy ? population.markers : undefined),
+    load: kernel.int32s(population.load.length, copy ? population.load : undefined),
   })
   const staged = { parents: stage(parents, true), source: source ? stage(source, true) : null, offspring: stage(offspring, false), stream: random }
   random.relocate(kernel.state())
