@@ -23,7 +23,9 @@ export type ArmRecord = Record<RescueMetric, Float64Array>
  * recipient; fitness is evaluated and the generation is measured (the record
  * for generation t); the recipient reproduces (with immigrant parents under
  * continuing migration); then (with translocation) the source reproduces on
- * its own schedule with the adaptive locus neutral there. The record for
+ * its own schedule with the adaptive locus neutral there — until its last
+ * event when there is no continuing migration (nothing it does later can
+ * reach the recipient, so the results are the same). The record for
  * generation G is taken after the last reproduction, and the record of an
  * event generation includes the migrants (they are breeding adults of that
  * generation). Marker-based F is 1 − H_t/H_0 with H_0 the residents' marker
@@ -53,6 +55,7 @@ export function runPhase(
   const sourceScratch: ReproductionScratch = reproductionScratch(gameteScratch(architecture))
   let current: Population | null = recipient
   let donor: Population | null = source
+  const lastEvent = plan.migrantsPerEvent > 0 ? plan.eventAt.lastIndexOf(1) : -1
   // Marker F is measured against the residents before any event, in both arms.
   const baseHeterozygosity = markerHeterozygosity(recipient, architecture)
   for (let generation = 0; generation <= generations && current; generation++) {
@@ -63,6 +66,9 @@ export function runPhase(
     const measures = measureGeneration(current, fitness, architecture)
     store(record, generation, measures, baseHeterozygosity)
     if (generation === generations) break
+    // Without continuing migration the source is not needed after its last event: its later
+    // generations could not reach the recipient, and its stream serves nothing else.
+    if (donor && plan.migrationRate === 0 && generation >= lastEvent) donor = null
     const immigrants = donor && plan.migrationRate > 0 ? { source: donor, rate: plan.migrationRate } : null
     current = reproduce(current, fitness, plan.recipient.census[generation + 1] ?? 2, plan.recipient.effectiveRatio, architecture, immigrants, recipientRandom, recipientScratch)
     if (donor) {
