@@ -13,8 +13,8 @@ const root = join(dirname(fileURLToPath(import.meta.url)), '..')
 /** Kernel source (kernels/NAME.ts) → generated module (shared/genetics/simulate/kernels/NAME-wasm.ts). */
 export const KERNELS = ['drift-step', 'genome', 'fitness', 'kinship', 'allele-counts']
 
-/** Compiler options: no garbage collector (the kernels allocate nothing), memory supplied by the caller. */
-const OPTIONS = ['--runtime', 'stub', '--importMemory', '--noExportMemory', '--optimizeLevel', '3', '--shrinkLevel', '0', '--use', 'abort=', '--noAssert']
+/** Compiler options: no garbage collector (the kernels allocate nothing), memory supplied by the caller, 128-bit SIMD (in Node.js since 16.4). */
+const OPTIONS = ['--runtime', 'stub', '--enable', 'simd', '--importMemory', '--noExportMemory', '--optimizeLevel', '3', '--shrinkLevel', '0', '--use', 'abort=', '--noAssert']
 
 /** Compiles one kernel and returns its WebAssembly bytes. */
 export async function compileKernel(name) {

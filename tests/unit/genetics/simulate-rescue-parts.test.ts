@@ -185,8 +185,9 @@ describe('evaluateFitness', () => {
 describe('countAlleles', () => {
   it('equals a bit-by-bit count', () => {
     fc.assert(fc.property(
-      // Up to 600 haplotypes: past the 15- and 255-haplotype flushes of the lane counters.
-      fc.integer({ min: 1, max: 4 }), fc.integer({ min: 0, max: 600 }), fc.integer({ min: 0, max: 2 ** 31 - 1 }),
+      // Up to 600 haplotypes: past the 15- and 255-haplotype flushes of the lane counters; up to
+      // 9 words: groups of four words side by side in SIMD lanes, then the leftover words.
+      fc.integer({ min: 1, max: 9 }), fc.integer({ min: 0, max: 600 }), fc.integer({ min: 0, max: 2 ** 31 - 1 }),
       (words, haplotypes, seed) => {
         const random = replicateStream(seed, 0)
         const bits = Int32Array.from({ length: words * haplotypes }, () => random.next())
@@ -204,8 +205,10 @@ describe('countAlleles', () => {
 
   it('does not overflow a lane when every haplotype carries every bit', () => {
     for (const haplotypes of [15, 16, 255, 256, 1000]) {
-      const counts = countAlleles(new Int32Array(2 * haplotypes).fill(-1), 2, haplotypes, 64)
-      expect(counts.every(count => count === haplotypes)).toBe(true)
+      for (const words of [2, 5]) {
+        const counts = countAlleles(new Int32Array(words * haplotypes).fill(-1), words, haplotypes, 32 * words)
+        expect(counts.every(count => count === haplotypes)).toBe(true)
+      }
     }
   })
 })
