@@ -170,3 +170,22 @@ export function offspringGeneration(
   store<i64>(0, streamState0)
   store<i64>(8, streamState1)
 }
+
+/**
+ * The founders' harmful copies at one load locus (`foundingPopulation`,
+ * shared/genetics/simulate/rescue/founders.ts): `copies` times, a haplotype uniform among
+ * `haplotypes` (`uniformIndex`: ⌊uniform01 · haplotypes⌋) gets bit `bit` of its word `word`
+ * (haplotypes of `loadWords` int32 words at byte address `haplotypeWords`). The stream's state is read from
+ * and written back to bytes 0–15, where the TypeScript draws between calls also find it.
+ */
+export function placeCopies(haplotypeWords: usize, loadWords: i32, haplotypes: i32, word: i32, bit: i32, copies: i32): void {
+  streamState0 = load<i64>(0)
+  streamState1 = load<i64>(8)
+  for (let copy: i32 = 0; copy < copies; copy++) {
+    const haplotype = <i32>Math.floor(uniform01() * <f64>haplotypes)
+    const at = haplotypeWords + ((<usize>haplotype * <usize>loadWords + <usize>word) << 2)
+    store<i32>(at, load<i32>(at) | bit)
+  }
+  store<i64>(0, streamState0)
+  store<i64>(8, streamState1)
+}

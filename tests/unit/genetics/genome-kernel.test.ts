@@ -63,3 +63,23 @@ describe('genome kernel gametes', () => {
     ), { numRuns: 60 })
   })
 })
+
+describe('genome kernel founders', () => {
+  it('foundingPopulation places the same harmful copies, drawing the same numbers, with the kernel as without', () => {
+    fc.assert(fc.property(fc.integer({ min: 2, max: 80 }), fc.integer({ min: 1, max: 400 }), fc.integer({ min: 1, max: 1000 }), (size, loadLoci, seed) => {
+      const params: RescueParams = {
+        recipient: { census: size }, source: { census: size }, generations: 1, markerLoci: 40,
+        load: { loci: loadLoci, meanSelection: 0.02 }, translocation: { migrantsPerEvent: 1, eventInterval: 1, events: 1 },
+      }
+      const architecture = genomeArchitecture(rescuePlan('test', params), sharedStream(seed))
+      const state = replicateStream(seed, 2).getState()
+      const reference = xoroshiro128plusFromState(state)
+      const stream = new WordStream(state)
+      const expected = foundingPopulation(size, architecture, reference)
+      const actual = foundingPopulation(size, architecture, stream)
+      expect(Array.from(actual.load)).toEqual(Array.from(expected.load))
+      expect(Array.from(actual.markers)).toEqual(Array.from(expected.markers))
+      expect(stream.getState()).toEqual(reference.getState())
+    }), { numRuns: 40 })
+  })
+})

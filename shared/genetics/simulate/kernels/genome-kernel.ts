@@ -5,6 +5,7 @@ import { ensureMemoryBytes, kernelMemory, kernelModule } from './instantiate'
 const ARRAYS_BYTE = 16
 
 type GameteExport = (markerFirst: number, markerOut: number, markerWords: number, loadFirst: number, loadOut: number, loadWords: number) => void
+type PlaceCopiesExport = (load: number, loadWords: number, haplotypes: number, word: number, bit: number, copies: number) => void
 type GenerationExport = (
   count: number,
   femaleIndices: number, femaleThreshold: number, femaleAlias: number, femaleSize: number,
@@ -53,7 +54,7 @@ export interface KernelGeneration {
 
 /**
  * The WebAssembly genome kernel (kernels/genome.ts): gamete words under free recombination, and
- * whole generations without immigrants, drawing from a `WordStream` relocated into its state words.
+ * whole generations without immigrants, and founders' harmful copies, drawing from a `WordStream` relocated into its state words.
  *
  * Why: a gamete of the rescue model takes one random word per heterozygous 32-locus word
  * (about 70 for 2,200 loci); in TypeScript each costs a generator step on 32-bit halves, in
@@ -71,6 +72,7 @@ export class GenomeKernel {
   private readonly memory: WebAssembly.Memory
   private readonly gameteExport: GameteExport
   private readonly generationExport: GenerationExport
+  private readonly placeCopiesExport: PlaceCopiesExport
   private nextFree = ARRAYS_BYTE
 
   constructor() {
@@ -78,6 +80,7 @@ export class GenomeKernel {
     const instance = new WebAssembly.Instance(kernelModule(genomeWasm), { env: { memory: this.memory } })
     this.gameteExport = instance.exports.gamete as GameteExport
     this.generationExport = instance.exports.offspringGeneration as GenerationExport
+    this.placeCopiesExport = instance.exports.placeCopies as PlaceCopiesExport
   }
 
   /** Frees every array and makes room for `bytes` bytes of arrays, each counted by `kernelArrayBytes` (views taken before are invalid). */
@@ -134,6 +137,14 @@ export class GenomeKernel {
       job.mutationLimit === null ? 0 : 1, job.mutationLimit ?? 0, job.loadLoci,
       job.mothers.byteOffset, job.fathers.byteOffset,
     )
+  }
+
+  /**
+   * Gives `copies` haplotypes drawn uniformly (with replacement) among `haplotypes` the bits `bit`
+   * of their load word `word` (`load`: the haplotypes' words, a view of this kernel's memory).
+   */
+  placeCopies(load: Int32Array, loadWords: number, haplotypes: number, word: number, bit: number, copies: number): void {
+    this.placeCopiesExport(load.byteOffset, loadWords, haplotypes, word, bit, copies)
   }
 
   /** Byte address of the next `bytes` bytes of the reserved room (8-byte aligned). */

@@ -1,6 +1,8 @@
 import { sampleBinomial } from '../random/binomial'
 import type { RandomStream } from '../random/streams'
 import { uniformIndex } from '../random/uniform'
+import { WordStream } from '../random/word-stream'
+import { GenomeKernel, kernelArrayBytes } from '../kernels/genome-kernel'
 import type { GenomeArchitecture } from './architecture'
 import { allocatePopulation } from './population'
 import type { Population } from './population'
@@ -34,17 +36,45 @@ export function foundingPopulation(size: number, architecture: GenomeArchitectur
       markers[haplotype * markerWords + word] = word === markerWords - 1 ? bits & lastMask : bits
     }
   }
-  const loadWords = architecture.loadWords
-  for (let locus = 0; locus < architecture.loadLoci; locus++) {
-    const copies = sampleBinomial(random, 2 * size, architecture.ancestralLoadFrequency[locus] ?? 0)
-    const word = locus >> 5
-    const bit = 1 << (locus & 31)
-    for (let copy = 0; copy < copies; copy++) {
-      const index = uniformIndex(random, 2 * size) * loadWords + word
-      load[index] = (load[index] ?? 0) | bit
+  if (random instanceof WordStream) placeLoadInKernel(load, size, architecture, random)
+  else {
+    const loadWords = architecture.loadWords
+    for (let locus = 0; locus < architecture.loadLoci; locus++) {
+      const copies = sampleBinomial(random, 2 * size, architecture.ancestralLoadFrequency[locus] ?? 0)
+      const word = locus >> 5
+      const bit = 1 << (locus & 31)
+      for (let copy = 0; copy < copies; copy++) {
+        const index = uniformIndex(random, 2 * size) * loadWords + word
+        load[index] = (load[index] ?? 0) | bit
+      }
     }
   }
   return population
+}
+
+/** The genome kernel that places founders' harmful copies (one per thread, created when first needed). */
+let foundersKernel: GenomeKernel | null = null
+
+/**
+ * The load loop of `foundingPopulation` with each locus's copies placed by the genome kernel:
+ * the stream moves into the kernel's state words, where the binomial draws (TypeScript) and the
+ * placements (kernel) take their numbers in turn, in the same order as the TypeScript loop.
+ */
+function placeLoadInKernel(load: Int32Array, size: number, architecture: GenomeArchitecture, random: WordStream): void {
+  const kernel = foundersKernel ??= new GenomeKernel()
+  kernel.reserve(kernelArrayBytes(load.length * 4))
+  const staged = kernel.int32s(load.length).fill(0)
+  const loadWords = architecture.loadWords
+  random.relocate(kernel.state())
+  try {
+    for (let locus = 0; locus < architecture.loadLoci; locus++) {
+      const copies = sampleBinomial(random, 2 * size, architecture.ancestralLoadFrequency[locus] ?? 0)
+      if (copies > 0) kernel.placeCopies(staged, loadWords, 2 * size, locus >> 5, 1 << (locus & 31), copies)
+    }
+  } finally {
+    random.returnHome()
+  }
+  load.set(staged)
 }
 
 /**
