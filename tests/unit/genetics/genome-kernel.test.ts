@@ -83,3 +83,43 @@ describe('genome kernel founders', () => {
     }), { numRuns: 40 })
   })
 })
+
+describe('genome kernel lineages', () => {
+  it('gives the TypeScript loops\' generations over a lineage whose size changes, each valid until the generation after next', () => {
+    fc.assert(fc.property(
+      fc.integer({ min: 4, max: 40 }), fc.array(fc.integer({ min: 2, max: 120 }), { minLength: 2, maxLength: 6 }),
+      fc.array(fc.boolean(), { minLength: 6, maxLength: 6 }), fc.integer({ min: 1, max: 1000 }),
+      (size, sizes, migrating, seed) => {
+        const params: RescueParams = {
+          recipient: { census: size }, source: { census: size }, generations: 3, markerLoci: 70,
+          load: { loci: 150, mutationRate: 0.5 }, adaptive: { s: 0.1, h: 0.5, sourceFrequency: 0.5 },
+          translocation: { migrantsPerEvent: 1, eventInterval: 1, events: 1, migrationRate: 0.1 },
+        }
+        const architecture = genomeArchitecture(rescuePlan('test', params), sharedStream(seed))
+        const founders = replicateStream(seed, 0)
+        const start = foundingPopulation(size, architecture, founders)
+        assignAdaptiveAlleles(start, 0.5, founders)
+        start.pedigree = founderPedigree(size)
+        const source = foundingPopulation(size, architecture, founders)
+        const state = replicateStream(seed, 1).getState()
+        const reference = xoroshiro128plusFromState(state)
+        const stream = new WordStream(state)
+        const referenceScratch = reproductionScratch(gameteScratch(architecture))
+        const kernelScratch = reproductionScratch(gameteScratch(architecture))
+        let expected: Population | null = start
+        let actual: Population | null = start
+        let previous: { population: Population, snapshot: ReturnType<typeof snapshot> } | null = null
+        for (const [generation, next] of sizes.entries()) {
+          if (!expected || !actual) break
+          const immigrants = migrating[generation] ? { source, rate: 0.1 } : null
+          expected = reproduce(expected, evaluateFitness(expected, architecture, null), next, 0.8, architecture, immigrants, reference, referenceScratch)
+          actual = reproduce(actual, evaluateFitness(actual, architecture, null), next, 0.8, architecture, immigrants, stream, kernelScratch)
+          expect(snapshot(actual)).toEqual(snapshot(expected))
+          if (previous) expect(snapshot(previous.population)).toEqual(previous.snapshot)
+          previous = actual ? { population: actual, snapshot: snapshot(actual) } : null
+        }
+        expect(stream.getState()).toEqual(reference.getState())
+      },
+    ), { numRuns: 40 })
+  })
+})

@@ -1,5 +1,5 @@
 import { genomeWasm } from './genome-wasm'
-import { ensureMemoryBytes, kernelMemory, kernelModule } from './instantiate'
+import { kernelMemory, kernelModule } from './instantiate'
 
 /** First byte of the arrays (bytes 0–15 hold the generator state). */
 const ARRAYS_BYTE = 16
@@ -52,9 +52,22 @@ export interface KernelGeneration {
   fathers: Int32Array
 }
 
+/** Int32 marker words, int32 load words and adaptive bytes of a population of `size` individuals. */
+export interface HaplotypeShape {
+  markers: number
+  load: number
+  adaptive: number
+}
+
+/** Bytes a population of this shape takes in a slot. */
+export function slotBytes(shape: HaplotypeShape): number {
+  return kernelArrayBytes(shape.markers * 4) + kernelArrayBytes(shape.load * 4) + kernelArrayBytes(shape.adaptive)
+}
+
 /**
- * The WebAssembly genome kernel (kernels/genome.ts): gamete words under free recombination, and
- * whole generations without immigrants, and founders' harmful copies, drawing from a `WordStream` relocated into its state words.
+ * The WebAssembly genome kernel (kernels/genome.ts): gamete words under free recombination,
+ * whole generations without immigrants, and founders' harmful copies, drawing from a
+ * `WordStream` relocated into its state words.
  *
  * Why: a gamete of the rescue model takes one random word per heterozygous 32-locus word
  * (about 70 for 2,200 loci); in TypeScript each costs a generator step on 32-bit halves, in
@@ -63,30 +76,84 @@ export interface KernelGeneration {
  * instead of a call per gamete and a dozen TypeScript helpers per offspring. The draws are the
  * same, in the same order.
  *
- * Use: `reserve` room, copy arrays in with `int32s`/`float64s`/`uint8s`, relocate the stream into
- * `state`, write gametes with `gamete` at the views' byte offsets or a generation with
- * `generation`, copy the children out. Growing the memory detaches every earlier view, so views
- * are taken after `reserve`.
+ * Memory: the state words (bytes 0–15), two population slots used in turn by a lineage of
+ * generations, then scratch. A generation's offspring are written into one slot and handed out
+ * as views (no copy, no new arrays); the next generation finds its parents there and writes into
+ * the other slot, so a population stays valid until the generation after next is written. When a
+ * generation needs more room, a new, larger memory replaces the old one instead of growing it
+ * (growing would detach every view handed out), and the old memory lives on as long as views of
+ * it do.
+ *
+ * Use: `reserve` room, place the parents with `parentsInSlot` and the offspring with
+ * `offspringSlot`, take scratch with `int32s`/`float64s`/`uint8s`, relocate the stream into
+ * `state`, then `gamete` (at views' byte offsets) or `generation`.
  */
 export class GenomeKernel {
-  private readonly memory: WebAssembly.Memory
-  private readonly gameteExport: GameteExport
-  private readonly generationExport: GenerationExport
-  private readonly placeCopiesExport: PlaceCopiesExport
+  private memory: WebAssembly.Memory
+  private gameteExport: GameteExport
+  private generationExport: GenerationExport
+  private placeCopiesExport: PlaceCopiesExport
+  /** Bytes per population slot. */
+  private slotCapacity = 0
+  /** Next free byte of scratch, and its end. */
   private nextFree = ARRAYS_BYTE
+  private scratchEnd = ARRAYS_BYTE
 
   constructor() {
     this.memory = kernelMemory(0)
-    const instance = new WebAssembly.Instance(kernelModule(genomeWasm), { env: { memory: this.memory } })
-    this.gameteExport = instance.exports.gamete as GameteExport
-    this.generationExport = instance.exports.offspringGeneration as GenerationExport
-    this.placeCopiesExport = instance.exports.placeCopies as PlaceCopiesExport
+    const exports = this.instantiate()
+    this.gameteExport = exports.gamete
+    this.generationExport = exports.generation
+    this.placeCopiesExport = exports.placeCopies
   }
 
-  /** Frees every array and makes room for `bytes` bytes of arrays, each counted by `kernelArrayBytes` (views taken before are invalid). */
-  reserve(bytes: number): void {
-    this.nextFree = ARRAYS_BYTE
-    ensureMemoryBytes(this.memory, ARRAYS_BYTE + bytes)
+  /**
+   * Room for two population slots of `populationBytes` (see `slotBytes`) and `scratchBytes` of
+   * scratch (each array counted by `kernelArrayBytes`); scratch taken before is freed. Keeps the
+   * memory, and the slots' contents, when they fit; otherwise replaces it with a larger one.
+   */
+  reserve(populationBytes: number, scratchBytes: number): void {
+    if (populationBytes > this.slotCapacity || this.scratchStart(this.slotCapacity) + scratchBytes > this.memory.buffer.byteLength) {
+      const capacity = Math.max(this.slotCapacity, Math.ceil(populationBytes * 1.25 / 8) * 8)
+      this.slotCapacity = capacity
+      this.memory = kernelMemory(Math.ceil((this.scratchStart(capacity) + scratchBytes) * 1.25))
+      const exports = this.instantiate()
+      this.gameteExport = exports.gamete
+      this.generationExport = exports.generation
+      this.placeCopiesExport = exports.placeCopies
+    }
+    this.nextFree = this.scratchStart(this.slotCapacity)
+    this.scratchEnd = this.memory.buffer.byteLength
+  }
+
+  /**
+   * The parents' haplotypes in a slot: where they already are, when they are views of a slot of
+   * this memory (the offspring of this lineage's last generation); otherwise copied into slot 0.
+   *
+   * @returns the slot (0 or 1) and the views
+   */
+  parentsInSlot(parents: KernelHaplotypes): { slot: number, haplotypes: KernelHaplotypes } {
+    for (let slot = 0; slot < 2; slot++) {
+      const views = this.slotViews(slot, { markers: parents.markers.length, load: parents.load.length, adaptive: parents.adaptive.length })
+      if (sameView(views.markers, parents.markers) && sameView(views.load, parents.load) && sameView(views.adaptive, parents.adaptive)) return { slot, haplotypes: views }
+    }
+    const views = this.slotViews(0, { markers: parents.markers.length, load: parents.load.length, adaptive: parents.adaptive.length })
+    views.markers.set(parents.markers)
+    views.load.set(parents.load)
+    views.adaptive.set(parents.adaptive)
+    return { slot: 0, haplotypes: views }
+  }
+
+  /** Views of slot `slot` for a population of this shape (contents as left there). */
+  slotViews(slot: number, shape: HaplotypeShape): KernelHaplotypes {
+    const start = ARRAYS_BYTE + slot * this.slotCapacity
+    const loadStart = start + kernelArrayBytes(shape.markers * 4)
+    const adaptiveStart = loadStart + kernelArrayBytes(shape.load * 4)
+    return {
+      markers: new Int32Array(this.memory.buffer, start, shape.markers),
+      load: new Int32Array(this.memory.buffer, loadStart, shape.load),
+      adaptive: new Uint8Array(this.memory.buffer, adaptiveStart, shape.adaptive),
+    }
   }
 
   /** The generator state words, where a `WordStream` is relocated while the kernel draws. */
@@ -94,21 +161,21 @@ export class GenomeKernel {
     return new Int32Array(this.memory.buffer, 0, 4)
   }
 
-  /** The next `length` int32 words of the reserved room, holding a copy of `from` if given. */
+  /** The next `length` int32 words of scratch, holding a copy of `from` if given. */
   int32s(length: number, from?: ArrayLike<number>): Int32Array {
     const view = new Int32Array(this.memory.buffer, this.take(length * 4), length)
     if (from) view.set(from)
     return view
   }
 
-  /** The next `length` doubles of the reserved room, holding a copy of `from` if given. */
+  /** The next `length` doubles of scratch, holding a copy of `from` if given. */
   float64s(length: number, from?: ArrayLike<number>): Float64Array {
     const view = new Float64Array(this.memory.buffer, this.take(length * 8), length)
     if (from) view.set(from)
     return view
   }
 
-  /** The next `length` bytes of the reserved room, holding a copy of `from` if given. */
+  /** The next `length` bytes of scratch, holding a copy of `from` if given. */
   uint8s(length: number, from?: ArrayLike<number>): Uint8Array {
     const view = new Uint8Array(this.memory.buffer, this.take(length), length)
     if (from) view.set(from)
@@ -147,11 +214,30 @@ export class GenomeKernel {
     this.placeCopiesExport(load.byteOffset, loadWords, haplotypes, word, bit, copies)
   }
 
-  /** Byte address of the next `bytes` bytes of the reserved room (8-byte aligned). */
+  /** First byte of scratch for slots of `capacity` bytes. */
+  private scratchStart(capacity: number): number {
+    return ARRAYS_BYTE + 2 * capacity
+  }
+
+  /** Byte address of the next `bytes` bytes of scratch (8-byte aligned). */
   private take(bytes: number): number {
     const at = this.nextFree
     this.nextFree += kernelArrayBytes(bytes)
-    if (this.nextFree > this.memory.buffer.byteLength) throw new RangeError('GenomeKernel: more room taken than reserved')
+    if (this.nextFree > this.scratchEnd) throw new RangeError('GenomeKernel: more scratch taken than reserved')
     return at
   }
+
+  private instantiate(): { gamete: GameteExport, generation: GenerationExport, placeCopies: PlaceCopiesExport } {
+    const { exports } = new WebAssembly.Instance(kernelModule(genomeWasm), { env: { memory: this.memory } })
+    return {
+      gamete: exports.gamete as GameteExport,
+      generation: exports.offspringGeneration as GenerationExport,
+      placeCopies: exports.placeCopies as PlaceCopiesExport,
+    }
+  }
+}
+
+/** Whether two views cover the same bytes of the same buffer. */
+function sameView(a: ArrayBufferView, b: ArrayBufferView): boolean {
+  return a.buffer === b.buffer && a.byteOffset === b.byteOffset && a.byteLength === b.byteLength
 }

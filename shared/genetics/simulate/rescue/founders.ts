@@ -62,7 +62,7 @@ let foundersKernel: GenomeKernel | null = null
  */
 function placeLoadInKernel(load: Int32Array, size: number, architecture: GenomeArchitecture, random: WordStream): void {
   const kernel = foundersKernel ??= new GenomeKernel()
-  kernel.reserve(kernelArrayBytes(load.length * 4))
+  kernel.reserve(0, kernelArrayBytes(load.length * 4))
   const staged = kernel.int32s(load.length).fill(0)
   const loadWords = architecture.loadWords
   random.relocate(kernel.state())

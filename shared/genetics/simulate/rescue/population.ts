@@ -7,6 +7,10 @@ import type { Pedigree } from './pedigree'
  * Haplotype h (0 or 1) of individual i starts at word (2i + h)·words of the
  * marker and load bitsets; bit j of a haplotype is locus j (1 = the derived
  * marker allele, or the harmful allele at a load locus).
+ *
+ * The haplotype arrays of a population made by `reproduce` may be views of
+ * its lineage's genome kernel memory, which that lineage reuses for the
+ * generation after next (see `GenomeKernel`).
  */
 export interface Population {
   size: number

@@ -1,7 +1,7 @@
 import type { RandomStream } from '../random/streams'
 import { WordStream } from '../random/word-stream'
-import { GenomeKernel, kernelArrayBytes } from '../kernels/genome-kernel'
-import type { KernelGeneration, KernelHaplotypes, KernelSamplerTables } from '../kernels/genome-kernel'
+import { GenomeKernel, kernelArrayBytes, slotBytes } from '../kernels/genome-kernel'
+import type { HaplotypeShape, KernelGeneration, KernelHaplotypes, KernelSamplerTables } from '../kernels/genome-kernel'
 import { POISSON_MULTIPLICATION_LIMIT } from '../random/poisson'
 import { KinshipKernel } from '../kernels/kinship-kernel'
 import { uniform01, uniformIndex } from '../random/uniform'
@@ -53,6 +53,10 @@ export function reproductionScratch(gamete: GameteScratch): ReproductionScratch 
  * female. Gametes by `writeGamete`; the offspring's pedigree (kinship among
  * the parents that bred) by `offspringPedigree` when the parents carry one.
  *
+ * Under free recombination with a `WordStream` the offspring's haplotype
+ * arrays are views of the lineage's genome kernel (`scratch.genome`): they
+ * stay valid until the generation after next is written with this scratch.
+ *
  * @param parents - breeding adults (residents plus any translocated animals)
  * @param parentFitness - fitness of each parent (from `evaluateFitness`)
  * @param offspringCount - next generation's census, integer ≥ 2
@@ -89,22 +93,22 @@ export function reproduce(
     for (let i = 0; i < immigrants.source.size; i++) (immigrants.source.male[i] === 1 ? immigrantMales : immigrantFemales).push(i)
   }
   const trackKinship = parents.pedigree !== null
-  const offspring = allocatePopulation(offspringCount, architecture)
   const mothers = new Int32Array(offspringCount)
   const fathers = new Int32Array(offspringCount)
   // Immigrants get parent numbers P, P+1, … in order of first use (kinship only).
   const immigrantNumber = new Map<number, number>()
   const kernelReady = architecture.markerLayout === null && architecture.loadLayout === null && random instanceof WordStream
+  let offspring: Population
   if (kernelReady && !immigration && architecture.mutationRate < POISSON_MULTIPLICATION_LIMIT) {
-    writeGenerationInKernel(scratch.genome, parents, offspring, femaleSampler, maleSampler, mothers, fathers, architecture, random)
+    offspring = writeGenerationInKernel(scratch.genome, parents, offspringCount, femaleSampler, maleSampler, mothers, fathers, architecture, random)
   } else {
     // Under free recombination with a relocatable stream, the gamete words are written by the genome
-    // kernel: parents, immigrant source and offspring haplotypes are staged in its memory and the
+    // kernel: parents, immigrant source and offspring haplotypes are placed in its memory and the
     // stream's state moves into its state words for the loop (same draws, same order).
-    const staged = kernelReady ? stageInKernel(scratch.genome, parents, immigrants?.source ?? null, offspring, random) : null
+    const staged = kernelReady ? stageInKernel(scratch.genome, parents, immigrants?.source ?? null, offspringCount, architecture, random) : null
+    offspring = staged ? staged.offspring : allocatePopulation(offspringCount, architecture)
     const breeding = staged ? staged.parents : parents
     const donors = staged?.source ?? immigrants?.source ?? null
-    const written = staged ? staged.offspring : offspring
     scratch.gamete.kernel = staged ? scratch.genome : null
     const numberImmigrant = (sourceIndex: number): number => {
       const known = immigrantNumber.get(sourceIndex)
@@ -119,11 +123,11 @@ export function reproduce(
           const pool = slot === 0 ? immigrantFemales : immigrantMales
           if (pool.length > 0 && immigrants && donors && uniform01(random) < immigrants.rate) {
             const sourceIndex = pool[uniformIndex(random, pool.length)] as number // index < pool.length
-            writeGamete(donors, sourceIndex, written, child, slot, architecture, random, scratch.gamete)
+            writeGamete(donors, sourceIndex, offspring, child, slot, architecture, random, scratch.gamete)
             if (trackKinship) (slot === 0 ? mothers : fathers)[child] = numberImmigrant(sourceIndex)
           } else {
             const parent = (slot === 0 ? femaleSampler : maleSampler).draw(random)
-            writeGamete(breeding, parent, written, child, slot, architecture, random, scratch.gamete)
+            writeGamete(breeding, parent, offspring, child, slot, architecture, random, scratch.gamete)
             if (trackKinship) (slot === 0 ? mothers : fathers)[child] = parent
           }
         }
@@ -132,10 +136,6 @@ export function reproduce(
       // The stream goes back to its own words whatever happens, so that it stays usable.
       staged?.stream.returnHome()
       scratch.gamete.kernel = null
-    }
-    if (staged) {
-      offspring.markers.set(staged.offspring.markers)
-      offspring.load.set(staged.offspring.load)
     }
   }
   if (parents.pedigree) {
@@ -170,43 +170,55 @@ function samplerFor(indices: number[], fitness: Float64Array, shape: number, ran
   return new ParentSampler(Int32Array.from(indices), new WeightedSampler(weights))
 }
 
+/** Int32 words and bytes of a population's haplotype arrays. */
+function haplotypeShape(size: number, architecture: GenomeArchitecture): HaplotypeShape {
+  return { markers: size * 2 * architecture.markerWords, load: size * 2 * architecture.loadWords, adaptive: size * 2 }
+}
+
+/** A new population of `size` (first ⌈size/2⌉ female) whose haplotype arrays are the given views. */
+function populationOn(size: number, haplotypes: KernelHaplotypes): Population {
+  const male = new Uint8Array(size)
+  male.fill(1, Math.ceil(size / 2))
+  return { size, male, markers: haplotypes.markers, load: haplotypes.load, adaptive: haplotypes.adaptive, pedigree: null }
+}
+
 /**
- * `reproduce`'s loop without immigrants, run whole by the genome kernel: the parents' haplotypes,
- * adaptive alleles and both samplers' alias tables are copied into its memory, the stream moves
- * into its state words, and the offspring's haplotypes, adaptive alleles and parent numbers are
- * copied out — the same draws in the same order as the TypeScript loop with `writeGamete`.
+ * `reproduce`'s loop without immigrants, run whole by the genome kernel: the parents' haplotypes
+ * are used where they are when they are the lineage's last offspring (else copied into a slot),
+ * both samplers' alias tables are copied into its scratch, the stream moves into its state words,
+ * and the offspring are written into the other slot — the same draws in the same order as the
+ * TypeScript loop with `writeGamete`.
+ *
+ * @returns the offspring, whose haplotype arrays are views of the kernel's memory
  */
 function writeGenerationInKernel(
   kernel: GenomeKernel,
   parents: Population,
-  offspring: Population,
+  offspringCount: number,
   females: ParentSampler,
   males: ParentSampler,
   mothers: Int32Array,
   fathers: Int32Array,
   architecture: GenomeArchitecture,
   random: WordStream,
-): void {
+): Population {
   const samplerBytes = (sampler: ParentSampler): number => 2 * kernelArrayBytes(sampler.indices.length * 4) + kernelArrayBytes(sampler.indices.length * 8)
-  const haplotypeBytes = (population: Population): number =>
-    kernelArrayBytes(population.markers.length * 4) + kernelArrayBytes(population.load.length * 4) + kernelArrayBytes(population.adaptive.length)
-  kernel.reserve(samplerBytes(females) + samplerBytes(males) + haplotypeBytes(parents) + haplotypeBytes(offspring) + 2 * kernelArrayBytes(mothers.length * 4))
+  const offspringShape = haplotypeShape(offspringCount, architecture)
+  kernel.reserve(Math.max(slotBytes(haplotypeShape(parents.size, architecture)), slotBytes(offspringShape)),
+    samplerBytes(females) + samplerBytes(males) + 2 * kernelArrayBytes(mothers.length * 4))
+  const placed = kernel.parentsInSlot(parents)
+  const offspring = kernel.slotViews(1 - placed.slot, offspringShape)
   const tables = (sampler: ParentSampler): KernelSamplerTables => ({
     indices: kernel.int32s(sampler.indices.length, sampler.indices),
     threshold: kernel.float64s(sampler.indices.length, sampler.sampler.threshold),
     alias: kernel.int32s(sampler.indices.length, sampler.sampler.alias),
   })
-  const haplotypes = (population: Population, copy: boolean): KernelHaplotypes => ({
-    markers: kernel.int32s(population.markers.length, copy ? population.markers : undefined),
-    load: kernel.int32s(population.load.length, copy ? population.load : undefined),
-    adaptive: kernel.uint8s(population.adaptive.length, copy ? population.adaptive : undefined),
-  })
   const job: KernelGeneration = {
-    count: offspring.size,
+    count: offspringCount,
     females: tables(females),
     males: tables(males),
-    parents: haplotypes(parents, true),
-    offspring: haplotypes(offspring, false),
+    parents: placed.haplotypes,
+    offspring,
     markerWords: architecture.markerWords,
     loadWords: architecture.loadWords,
     mutationLimit: architecture.loadWords > 0 && architecture.mutationRate > 0 ? Math.exp(-architecture.mutationRate) : null,
@@ -220,11 +232,9 @@ function writeGenerationInKernel(
   } finally {
     random.returnHome()
   }
-  offspring.markers.set(job.offspring.markers)
-  offspring.load.set(job.offspring.load)
-  offspring.adaptive.set(job.offspring.adaptive)
   mothers.set(job.mothers)
   fathers.set(job.fathers)
+  return populationOn(offspringCount, offspring)
 }
 
 /** Populations whose haplotype arrays are views of a genome kernel's memory. */
@@ -237,21 +247,23 @@ interface StagedPopulations {
 }
 
 /**
- * Copies the parents' and the source's haplotypes into the kernel's memory, takes room for the
- * offspring's, and moves the stream into the kernel's state words. The returned populations share
- * everything else with the originals; the caller copies the offspring's haplotypes out and calls
- * `random.returnHome()` when the gametes are written.
+ * Places the parents in a slot of the kernel's memory (where they are, when they are the lineage's
+ * last offspring), copies the source's haplotypes into its scratch, takes the other slot for the
+ * offspring, and moves the stream into the kernel's state words. The returned parents and source
+ * share everything else with the originals; the caller calls `random.returnHome()` when the
+ * gametes are written.
  */
-function stageInKernel(kernel: GenomeKernel, parents: Population, source: Population | null, offspring: Population, random: WordStream): StagedPopulations {
-  const bytes = (population: Population | null): number =>
-    population ? kernelArrayBytes(population.markers.length * 4) + kernelArrayBytes(population.load.length * 4) : 0
-  kernel.reserve(bytes(parents) + bytes(source) + bytes(offspring))
-  const stage = (population: Population, copy: boolean): Population => ({
-    ...population,
-    markers: kernel.int32s(population.markers.length, copy ? population.markers : undefined),
-    load: kernel.int32s(population.load.length, copy ? population.load : undefined),
-  })
-  const staged = { parents: stage(parents, true), source: source ? stage(source, true) : null, offspring: stage(offspring, false), stream: random }
+function stageInKernel(kernel: GenomeKernel, parents: Population, source: Population | null, offspringCount: number, architecture: GenomeArchitecture, random: WordStream): StagedPopulations {
+  const offspringShape = haplotypeShape(offspringCount, architecture)
+  kernel.reserve(Math.max(slotBytes(haplotypeShape(parents.size, architecture)), slotBytes(offspringShape)),
+    source ? kernelArrayBytes(source.markers.length * 4) + kernelArrayBytes(source.load.length * 4) : 0)
+  const placed = kernel.parentsInSlot(parents)
+  const staged = {
+    parents: { ...parents, markers: placed.haplotypes.markers, load: placed.haplotypes.load },
+    source: source ? { ...source, markers: kernel.int32s(source.markers.length, source.markers), load: kernel.int32s(source.load.length, source.load) } : null,
+    offspring: populationOn(offspringCount, kernel.slotViews(1 - placed.slot, offspringShape)),
+    stream: random,
+  }
   random.relocate(kernel.state())
   return staged
 }
