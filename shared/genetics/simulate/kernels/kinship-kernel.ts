@@ -1,7 +1,7 @@
 import { kinshipWasm } from './kinship-wasm'
 import { kernelMemory, kernelModule } from './instantiate'
 
-type OffspringKinshipExport = (parents: number, parentCount: number, mothers: number, fathers: number, size: number, out: number) => void
+type OffspringKinshipExport = (parents: number, parentCount: number, mothers: number, fathers: number, size: number, out: number, tables: number) => void
 
 /**
  * The WebAssembly kinship kernel (kernels/kinship.ts) for one lineage of generations: the
@@ -19,9 +19,10 @@ type OffspringKinshipExport = (parents: number, parentCount: number, mothers: nu
 export class KinshipKernel {
   private memory: WebAssembly.Memory | null = null
   private run: OffspringKinshipExport | null = null
-  /** Floats per matrix slot, and int32 parent numbers per parent array. */
+  /** Floats per matrix slot, int32 parent numbers per parent array, and parents the interleaved tables have room for. */
   private matrixCapacity = 0
   private parentCapacity = 0
+  private tableCapacity = 0
 
   /**
    * @param parentKinship - the parents' matrix (parentCount × parentCount), anywhere
@@ -33,8 +34,8 @@ export class KinshipKernel {
   offspringKinship(parentKinship: Float32Array, parentCount: number, mothers: Int32Array, fathers: Int32Array): Float32Array {
     const size = mothers.length
     const parentEntries = parentCount * parentCount
-    if (!this.memory || Math.max(size * size, parentEntries) > this.matrixCapacity || size > this.parentCapacity) {
-      this.allocate(Math.max(size * size, parentEntries), size)
+    if (!this.memory || Math.max(size * size, parentEntries) > this.matrixCapacity || size > this.parentCapacity || parentCount > this.tableCapacity) {
+      this.allocate(Math.max(size * size, parentEntries), size, parentCount)
     }
     const memory = this.memory as WebAssembly.Memory // allocated above
     const slotBytes = this.matrixCapacity * 4
@@ -48,17 +49,22 @@ export class KinshipKernel {
     const outByte = parentsByte === 0 ? slotBytes : 0
     const mothersByte = 2 * slotBytes
     const fathersByte = mothersByte + this.parentCapacity * 4
+    const tablesByte = fathersByte + this.parentCapacity * 4
     new Int32Array(memory.buffer, mothersByte, size).set(mothers)
     new Int32Array(memory.buffer, fathersByte, size).set(fathers)
-    ;(this.run as OffspringKinshipExport)(parentsByte, parentCount, mothersByte, fathersByte, size, outByte)
+    ;(this.run as OffspringKinshipExport)(parentsByte, parentCount, mothersByte, fathersByte, size, outByte, tablesByte)
     return new Float32Array(memory.buffer, outByte, size * size)
   }
 
-  /** A fresh memory with room for matrices of `entries` floats and `parents` parents (a quarter more of each). */
-  private allocate(entries: number, parents: number): void {
+  /**
+   * A fresh memory with room for matrices of `entries` floats, `members` members' parent numbers
+   * and the kernel's interleaved tables for `parents` parents (a quarter more of each).
+   */
+  private allocate(entries: number, members: number, parents: number): void {
     this.matrixCapacity = Math.ceil(entries * 1.25) + 16
-    this.parentCapacity = Math.ceil(parents * 1.25) + 16
-    const bytes = 2 * this.matrixCapacity * 4 + 2 * this.parentCapacity * 4
+    this.parentCapacity = Math.ceil(members * 1.25) + 16
+    this.tableCapacity = Math.ceil(parents * 1.25) + 16
+    const bytes = 2 * this.matrixCapacity * 4 + 2 * this.parentCapacity * 4 + 32 * this.tableCapacity
     this.memory = kernelMemory(bytes)
     const instance = new WebAssembly.Instance(kernelModule(kinshipWasm), { env: { memory: this.memory } })
     this.run = instance.exports.offspringKinship as OffspringKinshipExport
