@@ -169,15 +169,16 @@ function rescueBenchmark(): void {
 }
 
 function scalingBenchmark(): void {
-  console.log('\nScaling of the individual-based model (phase only, CPU seconds per replicate unless noted):')
+  console.log('\nScaling of the individual-based model (phase only, CPU seconds per replicate, best of 3 runs, unless noted):')
   const base = { census: 200, load: 1000, markers: 200, generations: 50 }
   const rows: string[] = []
+  perReplicate(rescueParams(100, base.load, base.markers, base.generations, 0), 2) // warm-up at the first size (JIT)
   for (const census of [100, 200, 400]) {
-    const timing = perReplicate(rescueParams(census, base.load, base.markers, base.generations, 0), 2)
+    const timing = perReplicate(rescueParams(census, base.load, base.markers, base.generations, 0), 2, 3)
     rows.push(`  N = ${census} (loci ${base.load} + ${base.markers}, ${base.generations} generations): ${format(timing.cpu, 3)} s`)
   }
   for (const loci of [500, 2000, 8000]) {
-    const timing = perReplicate(rescueParams(base.census, loci, base.markers, base.generations, 0), 2)
+    const timing = perReplicate(rescueParams(base.census, loci, base.markers, base.generations, 0), 2, 3)
     rows.push(`  load loci = ${loci} (N ${base.census}): ${format(timing.cpu, 3)} s`)
   }
   for (const replicates of [2, 4, 8]) {
