@@ -11,32 +11,13 @@
 //
 // Memory layout (bytes), shared with genome-kernel.ts:
 //   0–15   generator state: s0 and s1 as little-endian 64-bit words (see WordStream)
-//   16…    haplotype arrays placed by the caller
+//   16…    two population slots, then scratch, placed by the caller (GenomeKernel)
+//
+// It also runs whole generations without immigrants and places founders' harmful copies (below).
 
-/**
- * One haplotype of a gamete: out[w] = a[w] where a[w] = b[w], else a[w] ^ ((a[w] ^ b[w]) & r)
- * with r the stream's next 32-bit output, for w = 0 … words − 1 (a, b, out: byte addresses).
- */
-function gameteWords(first: usize, second: usize, out: usize, words: i32): void {
-  let state0 = load<i64>(0)
-  let state1 = load<i64>(8)
-  for (let word: usize = 0; word < <usize>words; word++) {
-    const a = load<i32>(first + (word << 2))
-    const difference = a ^ load<i32>(second + (word << 2))
-    if (difference == 0) {
-      store<i32>(out + (word << 2), a)
-    } else {
-      // pure-rand's xoroshiro128+ next(): low 32 bits of s0 + s1, then the a = 24, b = 16, c = 37 step.
-      const random = <i32>(state0 + state1)
-      const mixed = state1 ^ state0
-      state0 = rotl<i64>(state0, 24) ^ mixed ^ (mixed << 16)
-      state1 = rotl<i64>(mixed, 37)
-      store<i32>(out + (word << 2), a ^ (difference & random))
-    }
-  }
-  store<i64>(0, state0)
-  store<i64>(8, state1)
-}
+/** The stream's two state words while a kernel function runs (copied in from and out to bytes 0–15). */
+let streamState0: i64 = 0
+let streamState1: i64 = 0
 
 /**
  * The marker and load words of one gamete: `gameteWords` for the markers (the parent's two
@@ -44,8 +25,12 @@ function gameteWords(first: usize, second: usize, out: usize, words: i32): void 
  * load loci likewise — one call per gamete instead of two.
  */
 export function gamete(markerFirst: usize, markerOut: usize, markerWords: i32, loadFirst: usize, loadOut: usize, loadWords: i32): void {
+  streamState0 = load<i64>(0)
+  streamState1 = load<i64>(8)
   gameteWords(markerFirst, markerFirst + (<usize>markerWords << 2), markerOut, markerWords)
   gameteWords(loadFirst, loadFirst + (<usize>loadWords << 2), loadOut, loadWords)
+  store<i64>(0, streamState0)
+  store<i64>(8, streamState1)
 }
 
 // ---------------------------------------------------------------------------------------------
@@ -57,11 +42,7 @@ export function gamete(markerFirst: usize, markerOut: usize, markerWords: i32, l
 // same order, so the offspring, the parent numbers and the stream's end state are those of the
 // TypeScript (tests/unit/genetics/genome-kernel.test.ts).
 
-/** The stream's two state words while `offspringGeneration` runs (copied in and out of bytes 0–15). */
-let streamState0: i64 = 0
-let streamState1: i64 = 0
-
-/** pure-rand's xoroshiro128+ next() on the global state (as in `gameteWords`). */
+/** pure-rand's xoroshiro128+ next() on the global state (the step `gameteWords` inlines). */
 // @ts-ignore: decorator
 @inline function nextWord(): i32 {
   const s0 = streamState0
@@ -90,8 +71,11 @@ let streamState1: i64 = 0
   return position - column < load<f64>(threshold + (<usize>index << 3)) ? index : load<i32>(alias + (<usize>index << 2))
 }
 
-/** `gameteWords` on the global state. */
-function gameteWordsGlobal(first: usize, second: usize, out: usize, words: i32): void {
+/**
+ * One haplotype of a gamete: out[w] = a[w] where a[w] = b[w], else a[w] ^ ((a[w] ^ b[w]) & r)
+ * with r the stream's next 32-bit output, for w = 0 … words − 1 (a, b, out: byte addresses).
+ */
+function gameteWords(first: usize, second: usize, out: usize, words: i32): void {
   let state0 = streamState0
   let state1 = streamState1
   for (let word: usize = 0; word < <usize>words; word++) {
@@ -100,6 +84,7 @@ function gameteWordsGlobal(first: usize, second: usize, out: usize, words: i32):
     if (difference == 0) {
       store<i32>(out + (word << 2), a)
     } else {
+      // pure-rand's xoroshiro128+ next(): low 32 bits of s0 + s1, then the a = 24, b = 16, c = 37 step.
       const random = <i32>(state0 + state1)
       const mixed = state1 ^ state0
       state0 = rotl<i64>(state0, 24) ^ mixed ^ (mixed << 16)
@@ -147,10 +132,10 @@ export function offspringGeneration(
       }
       const haplotype = <usize>(2 * child + slot)
       const markerFirst = parentMarkers + <usize>(2 * parent) * markerBytes
-      gameteWordsGlobal(markerFirst, markerFirst + markerBytes, childMarkers + haplotype * markerBytes, markerWords)
+      gameteWords(markerFirst, markerFirst + markerBytes, childMarkers + haplotype * markerBytes, markerWords)
       const loadFirst = parentLoad + <usize>(2 * parent) * loadBytes
       const loadOut = childLoad + haplotype * loadBytes
-      gameteWordsGlobal(loadFirst, loadFirst + loadBytes, loadOut, loadWords)
+      gameteWords(loadFirst, loadFirst + loadBytes, loadOut, loadWords)
       if (mutate != 0) {
         let mutations: i32 = 0
         let product = uniform01()
