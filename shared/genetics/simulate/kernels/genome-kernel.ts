@@ -17,6 +17,13 @@ type GenerationExport = (
   mothers: number, fathers: number,
 ) => void
 
+/** The genome kernel's exported functions. */
+interface GenomeExports {
+  gamete: GameteExport
+  generation: GenerationExport
+  placeCopies: PlaceCopiesExport
+}
+
 /** Bytes an array of `bytes` takes in the kernel's memory (arrays start on 8-byte boundaries). */
 export function kernelArrayBytes(bytes: number): number {
   return Math.ceil(bytes / 8) * 8
@@ -84,15 +91,14 @@ export function slotBytes(shape: HaplotypeShape): number {
  * (growing would detach every view handed out), and the old memory lives on as long as views of
  * it do.
  *
- * Use: `reserve` room, place the parents with `parentsInSlot` and the offspring with
- * `offspringSlot`, take scratch with `int32s`/`float64s`/`uint8s`, relocate the stream into
- * `state`, then `gamete` (at views' byte offsets) or `generation`.
+ * Use: `reserve` room, place the parents with `parentsInSlot` and take the other slot for the
+ * offspring with `slotViews`, take scratch with `int32s`/`float64s`/`uint8s`, relocate the stream
+ * into `state`, then `gamete` (at views' byte offsets) or `generation`.
  */
 export class GenomeKernel {
   private memory: WebAssembly.Memory
-  private gameteExport: GameteExport
-  private generationExport: GenerationExport
-  private placeCopiesExport: PlaceCopiesExport
+  /** The kernel's functions, bound to `memory`. */
+  private exports: GenomeExports
   /** Bytes per population slot. */
   private slotCapacity = 0
   /** Next free byte of scratch, and its end. */
@@ -101,10 +107,7 @@ export class GenomeKernel {
 
   constructor() {
     this.memory = kernelMemory(0)
-    const exports = this.instantiate()
-    this.gameteExport = exports.gamete
-    this.generationExport = exports.generation
-    this.placeCopiesExport = exports.placeCopies
+    this.exports = this.instantiate()
   }
 
   /**
@@ -117,10 +120,7 @@ export class GenomeKernel {
       const capacity = Math.max(this.slotCapacity, Math.ceil(populationBytes * 1.25 / 8) * 8)
       this.slotCapacity = capacity
       this.memory = kernelMemory(Math.ceil((this.scratchStart(capacity) + scratchBytes) * 1.25))
-      const exports = this.instantiate()
-      this.gameteExport = exports.gamete
-      this.generationExport = exports.generation
-      this.placeCopiesExport = exports.placeCopies
+      this.exports = this.instantiate()
     }
     this.nextFree = this.scratchStart(this.slotCapacity)
     this.scratchEnd = this.memory.buffer.byteLength
@@ -133,11 +133,12 @@ export class GenomeKernel {
    * @returns the slot (0 or 1) and the views
    */
   parentsInSlot(parents: KernelHaplotypes): { slot: number, haplotypes: KernelHaplotypes } {
+    const shape = { markers: parents.markers.length, load: parents.load.length, adaptive: parents.adaptive.length }
     for (let slot = 0; slot < 2; slot++) {
-      const views = this.slotViews(slot, { markers: parents.markers.length, load: parents.load.length, adaptive: parents.adaptive.length })
+      const views = this.slotViews(slot, shape)
       if (sameView(views.markers, parents.markers) && sameView(views.load, parents.load) && sameView(views.adaptive, parents.adaptive)) return { slot, haplotypes: views }
     }
-    const views = this.slotViews(0, { markers: parents.markers.length, load: parents.load.length, adaptive: parents.adaptive.length })
+    const views = this.slotViews(0, shape)
     views.markers.set(parents.markers)
     views.load.set(parents.load)
     views.adaptive.set(parents.adaptive)
@@ -188,13 +189,13 @@ export class GenomeKernel {
    * and loadOut (byte addresses in the kernel's memory, i.e. views' byteOffset plus 4 per word).
    */
   gamete(markerFirst: number, markerOut: number, markerWords: number, loadFirst: number, loadOut: number, loadWords: number): void {
-    this.gameteExport(markerFirst, markerOut, markerWords, loadFirst, loadOut, loadWords)
+    this.exports.gamete(markerFirst, markerOut, markerWords, loadFirst, loadOut, loadWords)
   }
 
   /** Writes a generation's offspring haplotypes, adaptive alleles and parent numbers (see `KernelGeneration`). */
   generation(job: KernelGeneration): void {
     const { females, males, parents, offspring } = job
-    this.generationExport(
+    this.exports.generation(
       job.count,
       females.indices.byteOffset, females.threshold.byteOffset, females.alias.byteOffset, females.indices.length,
       males.indices.byteOffset, males.threshold.byteOffset, males.alias.byteOffset, males.indices.length,
@@ -211,7 +212,7 @@ export class GenomeKernel {
    * of their load word `word` (`load`: the haplotypes' words, a view of this kernel's memory).
    */
   placeCopies(load: Int32Array, loadWords: number, haplotypes: number, word: number, bit: number, copies: number): void {
-    this.placeCopiesExport(load.byteOffset, loadWords, haplotypes, word, bit, copies)
+    this.exports.placeCopies(load.byteOffset, loadWords, haplotypes, word, bit, copies)
   }
 
   /** First byte of scratch for slots of `capacity` bytes. */
@@ -227,7 +228,8 @@ export class GenomeKernel {
     return at
   }
 
-  private instantiate(): { gamete: GameteExport, generation: GenerationExport, placeCopies: PlaceCopiesExport } {
+  /** The kernel's functions on the current memory. */
+  private instantiate(): GenomeExports {
     const { exports } = new WebAssembly.Instance(kernelModule(genomeWasm), { env: { memory: this.memory } })
     return {
       gamete: exports.gamete as GameteExport,

@@ -36,14 +36,24 @@ export interface Population {
  * @returns a new population without a pedigree
  */
 export function allocatePopulation(size: number, architecture: GenomeArchitecture): Population {
-  const male = new Uint8Array(size)
-  male.fill(1, Math.ceil(size / 2))
   return {
     size,
-    male,
+    male: sexesOf(size),
     markers: new Int32Array(size * 2 * architecture.markerWords),
     load: new Int32Array(size * 2 * architecture.loadWords),
     adaptive: new Uint8Array(size * 2),
     pedigree: null,
   }
+}
+
+/**
+ * The sexes of a generation of `size`: the first ⌈size/2⌉ female (0), the rest male (1).
+ *
+ * @param size - individuals, integer ≥ 0
+ * @returns a new array, 1 for males
+ */
+export function sexesOf(size: number): Uint8Array {
+  const male = new Uint8Array(size)
+  male.fill(1, Math.ceil(size / 2))
+  return male
 }

@@ -11,7 +11,7 @@ import { matingWeights, reproductiveWeightShape } from './family-weights'
 import { writeGamete } from './gamete'
 import type { GameteScratch } from './gamete'
 import { offspringPedigree } from './pedigree'
-import { allocatePopulation } from './population'
+import { allocatePopulation, sexesOf } from './population'
 import type { Population } from './population'
 
 /** Immigrant parents from a source population (continuing migration). */
@@ -177,9 +177,20 @@ function haplotypeShape(size: number, architecture: GenomeArchitecture): Haploty
 
 /** A new population of `size` (first ⌈size/2⌉ female) whose haplotype arrays are the given views. */
 function populationOn(size: number, haplotypes: KernelHaplotypes): Population {
-  const male = new Uint8Array(size)
-  male.fill(1, Math.ceil(size / 2))
-  return { size, male, markers: haplotypes.markers, load: haplotypes.load, adaptive: haplotypes.adaptive, pedigree: null }
+  return { size, male: sexesOf(size), markers: haplotypes.markers, load: haplotypes.load, adaptive: haplotypes.adaptive, pedigree: null }
+}
+
+/**
+ * Reserves the kernel's slots for the parents and `offspringCount` offspring and `scratchBytes` of
+ * scratch, and places the parents in a slot (in place when they are the lineage's last offspring).
+ *
+ * @returns the parents' views and the other slot's views for the offspring
+ */
+function placeInSlots(kernel: GenomeKernel, parents: Population, offspringCount: number, architecture: GenomeArchitecture, scratchBytes: number): { parents: KernelHaplotypes, offspring: KernelHaplotypes } {
+  const offspringShape = haplotypeShape(offspringCount, architecture)
+  kernel.reserve(Math.max(slotBytes(haplotypeShape(parents.size, architecture)), slotBytes(offspringShape)), scratchBytes)
+  const placed = kernel.parentsInSlot(parents)
+  return { parents: placed.haplotypes, offspring: kernel.slotViews(1 - placed.slot, offspringShape) }
 }
 
 /**
@@ -203,11 +214,8 @@ function writeGenerationInKernel(
   random: WordStream,
 ): Population {
   const samplerBytes = (sampler: ParentSampler): number => 2 * kernelArrayBytes(sampler.indices.length * 4) + kernelArrayBytes(sampler.indices.length * 8)
-  const offspringShape = haplotypeShape(offspringCount, architecture)
-  kernel.reserve(Math.max(slotBytes(haplotypeShape(parents.size, architecture)), slotBytes(offspringShape)),
+  const slots = placeInSlots(kernel, parents, offspringCount, architecture,
     samplerBytes(females) + samplerBytes(males) + 2 * kernelArrayBytes(mothers.length * 4))
-  const placed = kernel.parentsInSlot(parents)
-  const offspring = kernel.slotViews(1 - placed.slot, offspringShape)
   const tables = (sampler: ParentSampler): KernelSamplerTables => ({
     indices: kernel.int32s(sampler.indices.length, sampler.indices),
     threshold: kernel.float64s(sampler.indices.length, sampler.sampler.threshold),
@@ -217,8 +225,8 @@ function writeGenerationInKernel(
     count: offspringCount,
     females: tables(females),
     males: tables(males),
-    parents: placed.haplotypes,
-    offspring,
+    parents: slots.parents,
+    offspring: slots.offspring,
     markerWords: architecture.markerWords,
     loadWords: architecture.loadWords,
     mutationLimit: architecture.loadWords > 0 && architecture.mutationRate > 0 ? Math.exp(-architecture.mutationRate) : null,
@@ -234,7 +242,7 @@ function writeGenerationInKernel(
   }
   mothers.set(job.mothers)
   fathers.set(job.fathers)
-  return populationOn(offspringCount, offspring)
+  return populationOn(offspringCount, slots.offspring)
 }
 
 /** Populations whose haplotype arrays are views of a genome kernel's memory. */
@@ -254,14 +262,12 @@ interface StagedPopulations {
  * gametes are written.
  */
 function stageInKernel(kernel: GenomeKernel, parents: Population, source: Population | null, offspringCount: number, architecture: GenomeArchitecture, random: WordStream): StagedPopulations {
-  const offspringShape = haplotypeShape(offspringCount, architecture)
-  kernel.reserve(Math.max(slotBytes(haplotypeShape(parents.size, architecture)), slotBytes(offspringShape)),
+  const slots = placeInSlots(kernel, parents, offspringCount, architecture,
     source ? kernelArrayBytes(source.markers.length * 4) + kernelArrayBytes(source.load.length * 4) : 0)
-  const placed = kernel.parentsInSlot(parents)
   const staged = {
-    parents: { ...parents, markers: placed.haplotypes.markers, load: placed.haplotypes.load },
+    parents: { ...parents, markers: slots.parents.markers, load: slots.parents.load },
     source: source ? { ...source, markers: kernel.int32s(source.markers.length, source.markers), load: kernel.int32s(source.load.length, source.load) } : null,
-    offspring: populationOn(offspringCount, kernel.slotViews(1 - placed.slot, offspringShape)),
+    offspring: populationOn(offspringCount, slots.offspring),
     stream: random,
   }
   random.relocate(kernel.state())
